@@ -1,0 +1,53 @@
+#pragma once
+/// \file
+/// The interface every aerodynamic model implements, at the level of the whole wing pair: the
+/// lifting line couples every strip of both wings in one solve per stage, so the interface hands
+/// a model all strips at once (DESIGN §4). Adding a model: DEVELOPERS.md, "Adding a model".
+
+#include <Eigen/Core>
+#include <memory>
+
+#include "flapline/aero/aero_options.hpp"
+#include "flapline/simulation/simulation_options.hpp"
+
+namespace flapline {
+
+class Model;
+class Workspace;
+
+/// Per-run buffers a model needs beyond the common Workspace (e.g. an influence matrix).
+struct AeroScratch {
+  virtual ~AeroScratch() = default;
+};
+
+/// Stateless strategy object: all run data lives in the Workspace. Thread-safe for distinct
+/// Workspaces.
+class AeroModel {
+ public:
+  virtual ~AeroModel() = default;
+  virtual ModelKind kind() const noexcept = 0;
+
+  /// Number of lag states of the wing pair (0 for a quasi-steady model).
+  virtual Eigen::Index state_size(const Model& model) const = 0;
+
+  /// Buffers for one run; null when the common Workspace suffices.
+  virtual std::unique_ptr<AeroScratch> make_scratch(const Model& model) const;
+
+  /// Initial states at time t for a start mode (rest: zero).
+  virtual void initial_state(const Model& model, Workspace& ws, double t, StartMode start,
+                             Eigen::VectorXd& x) const = 0;
+
+  /// dx/dt of all states at time t. Called at every RK4 stage: must not allocate.
+  virtual void derivative(const Model& model, Workspace& ws, double t, const Eigen::VectorXd& x,
+                          Eigen::VectorXd& dxdt) const = 0;
+
+  /// Per-strip loads at time t into ws.loads. ws.sections must already hold the kinematics at t
+  /// (update_sections). Called at output times only.
+  virtual void loads(const Model& model, Workspace& ws, double t,
+                     const Eigen::VectorXd& x) const = 0;
+};
+
+/// The model selected by the options.
+std::shared_ptr<const AeroModel> make_aero_model(const AeroOptions& options);
+
+}  // namespace flapline

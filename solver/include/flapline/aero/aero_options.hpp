@@ -1,0 +1,60 @@
+#pragma once
+/// \file
+/// Options of the aerodynamic models (DESIGN §4). Key paths in errors: `model.*`.
+
+#include "flapline/common/enum_names.hpp"
+
+namespace flapline {
+
+/// Which aerodynamic model a run uses.
+enum class ModelKind {
+  quasi_steady  ///< no states: loads follow the instantaneous kinematics
+};
+template <>
+struct EnumNames<ModelKind> {
+  static constexpr std::array<std::pair<ModelKind, std::string_view>, 1> items{
+      {{ModelKind::quasi_steady, "quasi_steady"}}};
+};
+
+/// Coefficient law of the quasi-steady model.
+enum class CoefficientLaw {
+  thin_airfoil,  ///< Γ = πc·w_¾ in the shared load formulas (slow-motion limit of the lag models)
+  revolving_fit  ///< lift/drag fits of revolving robotic wings plus the rotational force
+};
+template <>
+struct EnumNames<CoefficientLaw> {
+  static constexpr std::array<std::pair<CoefficientLaw, std::string_view>, 2> items{
+      {{CoefficientLaw::thin_airfoil, "thin_airfoil"},
+       {CoefficientLaw::revolving_fit, "revolving_fit"}}};
+};
+
+/// Coefficients of the revolving-wing fit, α in degrees:
+/// C_L = lift_offset + lift_amplitude · sin(lift_rate·α − lift_shift),
+/// C_D = drag_offset − drag_amplitude · cos(drag_rate·α − drag_shift).
+/// Defaults: Dickinson, Lehmann & Sane (1999), Science 284:1954-1960, robotic fruit-fly wing.
+struct RevolvingFit {
+  double lift_offset = 0.225, lift_amplitude = 1.58, lift_rate = 2.13, lift_shift = 7.20;
+  double drag_offset = 1.92, drag_amplitude = 1.55, drag_rate = 2.04, drag_shift = 9.82;
+
+  /// C_L(α) for α in rad, extended oddly to α < 0 and by flat-plate symmetry
+  /// (C_L(180° − α) = −C_L(α)) to reverse flow (common practice).
+  double lift_coefficient(double alpha) const;
+  /// C_D(α), even in α and symmetric about 90° in the same way.
+  double drag_coefficient(double alpha) const;
+};
+
+/// Every aerodynamic option of a run, with defaults.
+struct AeroOptions {
+  ModelKind kind = ModelKind::quasi_steady;
+  CoefficientLaw law = CoefficientLaw::thin_airfoil;  ///< quasi_steady only
+  /// η_s in [0, 1]: share of the leading-edge suction recovered (1 attached flow, 0 separated).
+  double suction_recovery = 1.0;
+  /// κ_v in [0, 2]: Polhamus vortex-lift factor, allowed only with suction_recovery = 0.
+  double vortex_lift = 0.0;
+  RevolvingFit fit;  ///< revolving_fit law only
+};
+
+/// Throws InputError for an option out of range.
+void validate(const AeroOptions& options);
+
+}  // namespace flapline

@@ -1,0 +1,44 @@
+#pragma once
+/// \file
+/// Result files of `flapline run` (layouts: configs/README.md, "Output files"). Each function
+/// returns the file's text; OutputFolder writes them atomically.
+
+#include <filesystem>
+#include <string>
+#include <utility>
+#include <vector>
+
+#include "flapline/simulation/model.hpp"
+#include "flapline/simulation/run_summary.hpp"
+
+namespace flapline::io {
+
+/// history.csv: one row per output sample (time, pair and per-wing forces and moments in body
+/// axes, power, gait angles).
+std::string history_csv(const RunSummary& summary);
+
+/// spanwise.csv: per strip at each requested phase and the cycle mean.
+std::string spanwise_csv(const RunSummary& summary);
+
+/// summary.json: every cycle average and figure, units in the key names.
+std::string summary_json(const RunSummary& summary, const std::string& config_path = {});
+
+/// Collects files and writes them all or none: each goes to a temporary name in the target
+/// folder and is renamed only when every write succeeded. A failed or abandoned commit leaves no
+/// file behind (nor the folder, when it created it).
+class OutputFolder {
+ public:
+  explicit OutputFolder(std::filesystem::path dir) : dir_(std::move(dir)) {}
+  /// Queue a file (name relative to the folder).
+  void add(std::string name, std::string content);
+  /// Write everything; throws std::runtime_error naming the file that failed.
+  void commit();
+  const std::filesystem::path& dir() const noexcept { return dir_; }
+  std::vector<std::filesystem::path> paths() const;
+
+ private:
+  std::filesystem::path dir_;
+  std::vector<std::pair<std::string, std::string>> files_;
+};
+
+}  // namespace flapline::io

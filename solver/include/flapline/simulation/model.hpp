@@ -1,0 +1,80 @@
+#pragma once
+/// \file
+/// The immutable description of one case: wing, gait, air, body motion and options (DESIGN §1).
+/// Build it once; algorithms read it through `const Model&` and keep their buffers in a Workspace.
+/// Thread-safety: a Model may be shared by any number of threads, each with its own Workspace.
+
+#include <array>
+#include <memory>
+#include <string>
+
+#include "flapline/aero/aero_options.hpp"
+#include "flapline/aero/atmosphere.hpp"
+#include "flapline/geometry/planform.hpp"
+#include "flapline/geometry/strips.hpp"
+#include "flapline/kinematics/gait.hpp"
+#include "flapline/kinematics/wing_motion.hpp"
+#include "flapline/simulation/simulation_options.hpp"
+
+namespace flapline {
+
+class AeroModel;
+
+/// Everything a case is made of, in SI units. The YAML layer fills it; tests build it in code.
+struct ModelSpec {
+  std::string title;  ///< free text shown in reports
+  PlanformSpec wing;
+  StripSpec strips;
+  GaitSpec gait;
+  FlightSpec flight;
+  AirSpec air;
+  AeroOptions aero;
+  SimulationOptions simulation;
+};
+
+/// Per-strip arrays of the wing pair (right wing's strips first, then the left's), unscaled by
+/// the span ratio. Derived once, used by the allocation-free inner loops.
+struct PairArrays {
+  Eigen::ArrayXd chord;             ///< m
+  Eigen::ArrayXd radius;            ///< m
+  Eigen::ArrayXd width;             ///< m
+  Eigen::ArrayXd three_quarter_arm; ///< m, ¾-chord point aft of the pitch axis: 0.75c − x₀c
+  Eigen::ArrayXd half_arm;          ///< m, mid-chord aft of the pitch axis: 0.5c − x₀c
+};
+
+class Model {
+ public:
+  /// Validate every field and build the derived data; throws InputError with the key path.
+  explicit Model(ModelSpec spec);
+
+  const ModelSpec& spec() const noexcept { return spec_; }
+  const Planform& planform() const noexcept { return planform_; }
+  const Strips& strips() const noexcept { return strips_; }
+  const PairArrays& pair() const noexcept { return pair_; }
+  const Air& air() const noexcept { return air_; }
+  const WingMotion& motion(Side side) const noexcept { return motion_[static_cast<int>(side)]; }
+  const AeroModel& aero() const noexcept { return *aero_; }
+  const AeroOptions& aero_options() const noexcept { return spec_.aero; }
+  const SimulationOptions& simulation() const noexcept { return spec_.simulation; }
+  /// Strips per wing N; the pair has 2N.
+  Eigen::Index strips_per_wing() const noexcept { return strips_.size(); }
+  Eigen::Index strip_count() const noexcept { return 2 * strips_.size(); }
+  double frequency() const noexcept { return spec_.gait.frequency; }
+  double period() const noexcept { return 1.0 / spec_.gait.frequency; }
+
+ private:
+  ModelSpec spec_;
+  Planform planform_;
+  Strips strips_;
+  PairArrays pair_;
+  Air air_;
+  std::array<WingMotion, 2> motion_;
+  std::shared_ptr<const AeroModel> aero_;
+};
+
+/// Side and strip number (0-based within its wing) of pair index k.
+inline Side side_of(Eigen::Index k, Eigen::Index per_wing) {
+  return k < per_wing ? Side::right : Side::left;
+}
+
+}  // namespace flapline

@@ -1,0 +1,120 @@
+#pragma once
+/// \file
+/// What every run ends in (STYLE §5): status, message, results, warnings, and a short and a full
+/// text report. Units are SI; angles in rad inside, degrees in the reports.
+
+#include <array>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "flapline/aero/aero_options.hpp"
+#include "flapline/kinematics/gait.hpp"
+#include "flapline/simulation/wrench.hpp"
+
+namespace flapline {
+
+enum class RunStatus {
+  converged,          ///< consecutive cycle means agreed within the tolerance
+  cycle_cap_reached,  ///< simulation.max_cycles ran out first
+  single_cycle        ///< only one cycle was run, so periodicity was not checked
+};
+template <>
+struct EnumNames<RunStatus> {
+  static constexpr std::array<std::pair<RunStatus, std::string_view>, 3> items{
+      {{RunStatus::converged, "converged"},
+       {RunStatus::cycle_cap_reached, "cycle_cap_reached"},
+       {RunStatus::single_cycle, "single_cycle"}}};
+};
+
+/// The safety cautions every summary ends with.
+extern const char* const kCautions;
+
+/// Gait angles of one wing at a sample (rad; span ratio dimensionless).
+struct WingAngles {
+  double stroke = 0, deviation = 0, pitch = 0, span_ratio = 1;
+};
+
+/// One output sample of the history.
+struct HistoryRow {
+  LoadSample loads;
+  std::array<WingAngles, 2> angles;  ///< right, left
+};
+
+/// Statistics of one whole cycle (uniform samples; the end point is the next cycle's start).
+struct CycleStats {
+  Wrench mean;                     ///< both wings
+  std::array<Wrench, 2> wing_mean; ///< right, left
+  double power_air_mean = 0, power_air_peak = 0, power_air_mean_positive = 0;        ///< W
+  double power_actuator_mean = 0, power_actuator_peak = 0, power_actuator_mean_positive = 0;
+  double force_rms = 0;  ///< RMS of |F| of the pair over the cycle (N)
+};
+
+/// Derived figures (DESIGN §5).
+struct Figures {
+  double span = 0;             ///< R (m)
+  double area = 0;             ///< one wing S (m²)
+  double mean_chord = 0;       ///< c̄ = S/R (m)
+  double aspect_ratio = 0;     ///< of the pair, 4R²/S_pair
+  double r1 = 0, r2 = 0, r3 = 0;  ///< non-dimensional radii of moments of area
+  double stroke_amplitude = 0;  ///< Φ, peak-to-peak stroke of the right wing (rad)
+  double airspeed = 0;          ///< |V − wind| (m/s)
+  double reference_speed = 0;   ///< U_ref, RMS of U at r̂₂R over the cycle, both wings (m/s)
+  std::optional<double> mean_lift_coefficient;  ///< L̄/(½ρU_ref²S_pair)
+  std::optional<double> reynolds_number;        ///< U_ref c̄/ν
+  std::optional<double> reduced_frequency;      ///< π f c̄/U_ref
+  std::optional<double> advance_ratio;          ///< V/(2ΦfR); none when Φ = 0
+  std::optional<double> lift_to_power;          ///< mean lift / mean power to the air (N/W)
+  double reverse_flow_fraction = 0;  ///< share of strip samples with U_t < 0 (last cycle)
+  double high_alpha_fraction = 0;    ///< share of strip samples with |α| > 30° (last cycle)
+};
+
+/// Loading of one strip at one phase (or its cycle mean), body axes.
+struct SpanwiseRow {
+  bool cycle_mean = false;  ///< true: averaged over the last cycle
+  double phase = 0;         ///< cycle fraction of the sample (snapped to the output samples)
+  Side side = Side::right;
+  int strip = 0;            ///< 0-based, root to tip
+  double radius = 0;        ///< m from the hinge at that instant (span ratio applied)
+  double span_fraction = 0; ///< r/R of the unfolded wing
+  double chord = 0;         ///< m
+  Eigen::Vector3d force_per_span = Eigen::Vector3d::Zero();  ///< N/m, body axes
+  double normal_force_per_span = 0;  ///< N/m along e_n
+  double circulation = 0;            ///< m²/s
+  double alpha = 0;                  ///< rad (NaN in cycle-mean rows)
+  double tangential_speed = 0;       ///< U_t (m/s)
+};
+
+struct RunSummary {
+  RunStatus status = RunStatus::single_cycle;
+  std::string message;
+  std::vector<std::string> warnings;
+
+  std::string title;
+  ModelKind model = ModelKind::quasi_steady;
+  std::string model_label;  ///< e.g. "quasi_steady (thin_airfoil)"
+  double frequency = 0;     ///< Hz
+  int steps_per_cycle = 0, samples_per_cycle = 0, strips_per_wing = 0;
+  int cycles = 0;                   ///< cycles integrated
+  double periodicity_residual = 0;  ///< last change of cycle means / convergence scale
+  double state_residual = 0;        ///< |x(end) − x(end − T)| / max|x| (0 without states)
+  double air_density = 0;           ///< kg/m³
+  double kinematic_viscosity = 0;   ///< m²/s
+
+  CycleStats averages;  ///< of the last cycle
+  Figures figures;
+  std::vector<HistoryRow> history;
+  std::vector<SpanwiseRow> spanwise;
+
+  /// Lift = −Z, thrust = X, side force = Y of the cycle mean (N).
+  double mean_lift() const { return -averages.mean.force.z(); }
+  double mean_thrust() const { return averages.mean.force.x(); }
+  double mean_side_force() const { return averages.mean.force.y(); }
+
+  /// A dozen lines: the headline numbers, warnings and the cautions.
+  std::string brief_report() const;
+  /// Everything in the summary as text, per wing, with units.
+  std::string full_report() const;
+};
+
+}  // namespace flapline

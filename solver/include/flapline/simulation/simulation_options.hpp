@@ -1,0 +1,54 @@
+#pragma once
+/// \file
+/// How a run is integrated and averaged (DESIGN §5). Key paths in errors: `simulation.*`.
+
+#include <vector>
+
+#include "flapline/common/enum_names.hpp"
+
+namespace flapline {
+
+/// Initial value of the lag states.
+enum class StartMode {
+  rest,         ///< states zero (an impulsive start)
+  quasi_steady  ///< states at their steady values for the kinematics at t = 0
+};
+template <>
+struct EnumNames<StartMode> {
+  static constexpr std::array<std::pair<StartMode, std::string_view>, 2> items{
+      {{StartMode::rest, "rest"}, {StartMode::quasi_steady, "quasi_steady"}}};
+};
+
+/// Which samples the history keeps.
+enum class HistoryKeep {
+  all,        ///< every output sample of every cycle
+  last_cycle  ///< only the last (averaged) cycle
+};
+template <>
+struct EnumNames<HistoryKeep> {
+  static constexpr std::array<std::pair<HistoryKeep, std::string_view>, 2> items{
+      {{HistoryKeep::all, "all"}, {HistoryKeep::last_cycle, "last_cycle"}}};
+};
+
+/// Documented limits (configs/README.md).
+inline constexpr int kMinStepsPerCycle = 20;
+inline constexpr int kMinSamplesPerCycle = 4;
+
+struct SimulationOptions {
+  int steps_per_cycle = 400;    ///< RK4 steps per wing-beat, [20, 100000]
+  int samples_per_cycle = 100;  ///< output samples per wing-beat, >= 4, divides steps_per_cycle
+  int min_cycles = 2;           ///< cycles run at least, [1, max_cycles]
+  int max_cycles = 300;         ///< cap, [1, 100000]
+  /// Convergence: stop when the change between consecutive cycle means of every force component
+  /// is below tolerance × the cycle RMS of |F| (moments: × RMS|F| × R). (0, 0.1].
+  double tolerance = 1e-5;
+  StartMode start = StartMode::rest;
+  /// Cycle fractions [0, 1) at which the spanwise loading is reported (snapped to samples).
+  std::vector<double> spanwise_phases{0.0, 0.25, 0.5, 0.75};
+  HistoryKeep history = HistoryKeep::all;
+};
+
+/// Throws InputError naming `simulation.<field>`.
+void validate(const SimulationOptions& options);
+
+}  // namespace flapline

@@ -1,0 +1,60 @@
+#include "flapline/aero/aero_options.hpp"
+
+#include <cmath>
+
+#include "flapline/common/errors.hpp"
+#include "flapline/common/math.hpp"
+
+namespace flapline {
+namespace {
+// Fold α (rad) into [0°, 90°] using C(−α) = ±C(α) and C(180° − α) = ∓C(α); returns the folded
+// angle in degrees and the sign the lift takes.
+double fold(double alpha, double& lift_sign) {
+  double a = std::remainder(alpha, 2.0 * kPi) / kDegree;  // (−180, 180]
+  lift_sign = 1.0;
+  if (a < 0.0) {
+    a = -a;
+    lift_sign = -lift_sign;
+  }
+  if (a > 90.0) {
+    a = 180.0 - a;
+    lift_sign = -lift_sign;
+  }
+  return a;
+}
+}  // namespace
+
+double RevolvingFit::lift_coefficient(double alpha) const {
+  double sign = 1.0;
+  const double a = fold(alpha, sign);
+  return sign * (lift_offset + lift_amplitude * std::sin((lift_rate * a - lift_shift) * kDegree));
+}
+
+double RevolvingFit::drag_coefficient(double alpha) const {
+  double sign = 1.0;
+  const double a = fold(alpha, sign);
+  return drag_offset - drag_amplitude * std::cos((drag_rate * a - drag_shift) * kDegree);
+}
+
+void validate(const AeroOptions& o) {
+  if (!(o.suction_recovery >= 0.0 && o.suction_recovery <= 1.0))
+    throw InputError("model.suction_recovery", format_number(o.suction_recovery),
+                     "must lie in [0, 1]");
+  if (!(o.vortex_lift >= 0.0 && o.vortex_lift <= 2.0))
+    throw InputError("model.vortex_lift", format_number(o.vortex_lift), "must lie in [0, 2]");
+  if (o.vortex_lift > 0.0 && o.suction_recovery > 0.0)
+    throw InputError("model.vortex_lift", format_number(o.vortex_lift),
+                     "must be 0 unless model.suction_recovery is 0",
+                     "vortex lift replaces the leading-edge suction of a separated leading edge");
+  const double c[] = {o.fit.lift_offset, o.fit.lift_amplitude, o.fit.lift_rate, o.fit.lift_shift,
+                      o.fit.drag_offset, o.fit.drag_amplitude, o.fit.drag_rate, o.fit.drag_shift};
+  for (double v : c)
+    if (!std::isfinite(v))
+      throw InputError("model.fit", format_number(v), "every coefficient must be finite");
+  if ((o.vortex_lift > 0.0 || o.suction_recovery != 1.0) && o.law == CoefficientLaw::revolving_fit)
+    throw InputError("model.suction_recovery", format_number(o.suction_recovery),
+                     "applies to the thin_airfoil law only; leave it at 1 with revolving_fit",
+                     "the fit already holds what the experiment measured");
+}
+
+}  // namespace flapline

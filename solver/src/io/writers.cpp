@@ -1,0 +1,199 @@
+#include "flapline/io/writers.hpp"
+
+#include <unistd.h>
+
+#include <cmath>
+#include <cstdio>
+#include <fstream>
+#include <nlohmann/json.hpp>
+#include <stdexcept>
+
+#include "flapline/common/math.hpp"
+
+namespace flapline::io {
+namespace {
+
+void cell(std::string& out, double v) {
+  char buf[32];
+  std::snprintf(buf, sizeof buf, ",%.9g", v);
+  out += buf;
+}
+
+void wrench_cells(std::string& out, const Wrench& w) {
+  for (int i = 0; i < 3; ++i) cell(out, w.force(i));
+  for (int i = 0; i < 3; ++i) cell(out, w.moment(i));
+}
+
+nlohmann::json optional_json(const std::optional<double>& v) {
+  return v ? nlohmann::json(*v) : nlohmann::json(nullptr);
+}
+
+nlohmann::json wrench_json(const Wrench& w) {
+  return {{"lift_N", -w.force.z()},  {"thrust_N", w.force.x()}, {"side_force_N", w.force.y()},
+          {"X_N", w.force.x()},      {"Y_N", w.force.y()},      {"Z_N", w.force.z()},
+          {"L_roll_Nm", w.moment.x()}, {"M_pitch_Nm", w.moment.y()}, {"N_yaw_Nm", w.moment.z()}};
+}
+
+}  // namespace
+
+std::string history_csv(const RunSummary& s) {
+  std::string out =
+      "time_s,cycle,phase,X_N,Y_N,Z_N,L_roll_Nm,M_pitch_Nm,N_yaw_Nm,lift_N,thrust_N,"
+      "right_X_N,right_Y_N,right_Z_N,right_L_roll_Nm,right_M_pitch_Nm,right_N_yaw_Nm,"
+      "left_X_N,left_Y_N,left_Z_N,left_L_roll_Nm,left_M_pitch_Nm,left_N_yaw_Nm,"
+      "power_air_W,power_actuator_W,"
+      "right_stroke_deg,right_deviation_deg,right_pitch_deg,right_span_ratio,"
+      "left_stroke_deg,left_deviation_deg,left_pitch_deg,left_span_ratio\n";
+  out.reserve(out.size() + s.history.size() * 420);
+  for (const HistoryRow& r : s.history) {
+    const double cycles = r.loads.time * s.frequency;
+    const double cycle = std::floor(cycles + 1e-9);
+    char buf[64];
+    std::snprintf(buf, sizeof buf, "%.9g,%d,%.6f", r.loads.time, static_cast<int>(cycle),
+                  std::max(0.0, cycles - cycle));
+    out += buf;
+    wrench_cells(out, r.loads.total);
+    cell(out, -r.loads.total.force.z());
+    cell(out, r.loads.total.force.x());
+    wrench_cells(out, r.loads.wing[0]);
+    wrench_cells(out, r.loads.wing[1]);
+    cell(out, r.loads.power_air);
+    cell(out, r.loads.power_actuator);
+    for (const WingAngles& a : r.angles) {
+      cell(out, a.stroke / kDegree);
+      cell(out, a.deviation / kDegree);
+      cell(out, a.pitch / kDegree);
+      cell(out, a.span_ratio);
+    }
+    out += "\n";
+  }
+  return out;
+}
+
+std::string spanwise_csv(const RunSummary& s) {
+  std::string out =
+      "phase,wing,strip,radius_m,span_fraction,chord_m,X_per_span_N_m,Y_per_span_N_m,"
+      "Z_per_span_N_m,lift_per_span_N_m,normal_force_per_span_N_m,circulation_m2_s,alpha_deg,"
+      "tangential_speed_m_s\n";
+  for (const SpanwiseRow& r : s.spanwise) {
+    char buf[64];
+    if (r.cycle_mean)
+      std::snprintf(buf, sizeof buf, "mean,%s,%d", std::string(to_string(r.side)).c_str(),
+                    r.strip + 1);
+    else
+      std::snprintf(buf, sizeof buf, "%.6f,%s,%d", r.phase, std::string(to_string(r.side)).c_str(),
+                    r.strip + 1);
+    out += buf;
+    cell(out, r.radius);
+    cell(out, r.span_fraction);
+    cell(out, r.chord);
+    for (int i = 0; i < 3; ++i) cell(out, r.force_per_span(i));
+    cell(out, -r.force_per_span.z());
+    cell(out, r.normal_force_per_span);
+    cell(out, r.circulation);
+    if (std::isfinite(r.alpha))
+      cell(out, r.alpha / kDegree);
+    else
+      out += ",";
+    cell(out, r.tangential_speed);
+    out += "\n";
+  }
+  return out;
+}
+
+std::string summary_json(const RunSummary& s, const std::string& config_path) {
+  using nlohmann::json;
+  const CycleStats& a = s.averages;
+  const Figures& f = s.figures;
+  json j;
+  j["title"] = s.title;
+  if (!config_path.empty()) j["config"] = config_path;
+  j["model"] = s.model_label;
+  j["status"] = std::string(to_string(s.status));
+  j["message"] = s.message;
+  j["warnings"] = s.warnings;
+  j["run"] = {{"frequency_Hz", s.frequency},
+              {"strips_per_wing", s.strips_per_wing},
+              {"steps_per_cycle", s.steps_per_cycle},
+              {"samples_per_cycle", s.samples_per_cycle},
+              {"cycles", s.cycles},
+              {"periodicity_residual", s.periodicity_residual},
+              {"state_residual", s.state_residual}};
+  j["air"] = {{"density_kg_m3", s.air_density},
+              {"kinematic_viscosity_m2_s", s.kinematic_viscosity}};
+  j["wing"] = {{"span_m", f.span},           {"area_one_wing_m2", f.area},
+               {"mean_chord_m", f.mean_chord}, {"aspect_ratio_pair", f.aspect_ratio},
+               {"r1_hat", f.r1},             {"r2_hat", f.r2},
+               {"r3_hat", f.r3}};
+  json means = wrench_json(a.mean);
+  means["right_wing"] = wrench_json(a.wing_mean[0]);
+  means["left_wing"] = wrench_json(a.wing_mean[1]);
+  j["cycle_mean"] = means;
+  j["power"] = {{"air_mean_W", a.power_air_mean},
+                {"air_peak_W", a.power_air_peak},
+                {"air_mean_positive_W", a.power_air_mean_positive},
+                {"actuator_mean_W", a.power_actuator_mean},
+                {"actuator_peak_W", a.power_actuator_peak},
+                {"actuator_mean_positive_W", a.power_actuator_mean_positive},
+                {"lift_to_power_N_per_W", optional_json(f.lift_to_power)}};
+  j["figures"] = {{"reference_speed_m_s", f.reference_speed},
+                  {"mean_lift_coefficient", optional_json(f.mean_lift_coefficient)},
+                  {"reynolds_number", optional_json(f.reynolds_number)},
+                  {"reduced_frequency", optional_json(f.reduced_frequency)},
+                  {"advance_ratio", optional_json(f.advance_ratio)},
+                  {"stroke_amplitude_deg", f.stroke_amplitude / kDegree},
+                  {"airspeed_m_s", f.airspeed},
+                  {"force_rms_N", a.force_rms},
+                  {"reverse_flow_fraction", f.reverse_flow_fraction},
+                  {"high_alpha_fraction", f.high_alpha_fraction}};
+  j["conventions"] =
+      "body axes: x forward, y toward the right wing, z down; L roll (+ right wing down), "
+      "M pitch (+ nose up), N yaw (+ nose right); lift = -Z, thrust = X, side force = Y; "
+      "moments about the body origin";
+  j["cautions"] = kCautions;
+  return j.dump(2) + "\n";
+}
+
+void OutputFolder::add(std::string name, std::string content) {
+  files_.emplace_back(std::move(name), std::move(content));
+}
+
+std::vector<std::filesystem::path> OutputFolder::paths() const {
+  std::vector<std::filesystem::path> out;
+  for (const auto& f : files_) out.push_back(dir_ / f.first);
+  return out;
+}
+
+void OutputFolder::commit() {
+  namespace fs = std::filesystem;
+  std::error_code ec;
+  const bool created = !fs::exists(dir_);
+  fs::create_directories(dir_, ec);
+  if (ec) throw std::runtime_error("cannot create output folder " + dir_.string() + ": " + ec.message());
+  const std::string tag = ".tmp-" + std::to_string(::getpid());
+  std::vector<fs::path> temps;
+  auto clean = [&] {
+    for (const auto& t : temps) fs::remove(t, ec);
+    if (created) fs::remove(dir_, ec);
+  };
+  for (const auto& [name, content] : files_) {
+    const fs::path tmp = dir_ / (name + tag);
+    temps.push_back(tmp);
+    std::ofstream out(tmp, std::ios::binary | std::ios::trunc);
+    out << content;
+    out.close();
+    if (!out) {
+      clean();
+      throw std::runtime_error("cannot write " + (dir_ / name).string());
+    }
+  }
+  for (std::size_t i = 0; i < files_.size(); ++i) {
+    fs::rename(temps[i], dir_ / files_[i].first, ec);
+    if (ec) {
+      clean();
+      throw std::runtime_error("cannot rename " + temps[i].string() + ": " + ec.message());
+    }
+  }
+}
+
+}  // namespace flapline::io

@@ -1,0 +1,76 @@
+#include "flapline/simulation/model.hpp"
+
+#include <cmath>
+
+#include "flapline/aero/aero_model.hpp"
+#include "flapline/common/errors.hpp"
+#include "flapline/common/math.hpp"
+
+namespace flapline {
+namespace {
+
+void check_vector(const Eigen::Vector3d& v, const char* key, double limit, const char* unit) {
+  if (!v.allFinite() || v.cwiseAbs().maxCoeff() > limit)
+    throw InputError(key,
+                     "[" + format_number(v.x()) + ", " + format_number(v.y()) + ", " +
+                         format_number(v.z()) + "]",
+                     "each component must be finite and within ±" + format_number(limit) + " (" +
+                         unit + ")");
+}
+
+const GaitSpec& validated(const GaitSpec& g) {
+  if (!(g.frequency > 0.0 && g.frequency <= 2000.0))
+    throw InputError("gait.frequency", format_number(g.frequency), "must lie in (0, 2000] (Hz)");
+  if (!(std::abs(g.stroke_plane_angle) <= kPi + 1e-12))
+    throw InputError("gait.stroke_plane_angle", format_number(g.stroke_plane_angle / kDegree),
+                     "must lie in [-180, 180] (deg)");
+  return g;
+}
+
+const FlightSpec& validated(const FlightSpec& f) {
+  check_vector(f.velocity, "flight.velocity", 1000.0, "m/s");
+  check_vector(f.rates, "flight.rates", 100.0 * 2 * kPi, "rad/s");
+  check_vector(f.wind, "flight.wind", 1000.0, "m/s");
+  return f;
+}
+
+void check_span_ratio(const WingMotion& m) {
+  const std::string key =
+      std::string("gait.") + (m.side == Side::right ? "right" : "left") + ".span_ratio";
+  if (!(m.span_ratio.minimum() > 0.0 && m.span_ratio.maximum() <= 1.0 + 1e-12))
+    throw InputError(key,
+                     "from " + format_number(m.span_ratio.minimum()) + " to " +
+                         format_number(m.span_ratio.maximum()),
+                     "must stay within (0, 1] over the whole cycle");
+}
+
+}  // namespace
+
+Model::Model(ModelSpec spec)
+    : spec_(std::move(spec)),
+      planform_(spec_.wing),
+      strips_(cut_into_strips(planform_, spec_.strips)),
+      air_(resolve_air(spec_.air)),
+      motion_{WingMotion(Side::right, validated(spec_.gait), spec_.gait.right, spec_.wing.hinge,
+                         validated(spec_.flight)),
+              WingMotion(Side::left, spec_.gait, spec_.gait.left, spec_.wing.hinge,
+                         spec_.flight)} {
+  check_span_ratio(motion_[0]);
+  check_span_ratio(motion_[1]);
+  validate(spec_.aero);
+  validate(spec_.simulation);
+  const Eigen::Index n = strips_.size();
+  auto twice = [n](const Eigen::ArrayXd& a) {
+    Eigen::ArrayXd out(2 * n);
+    out << a, a;
+    return out;
+  };
+  pair_.chord = twice(strips_.chord);
+  pair_.radius = twice(strips_.radius);
+  pair_.width = twice(strips_.width);
+  pair_.three_quarter_arm = twice(0.75 * strips_.chord - strips_.leading_edge);
+  pair_.half_arm = twice(0.5 * strips_.chord - strips_.leading_edge);
+  aero_ = make_aero_model(spec_.aero);
+}
+
+}  // namespace flapline

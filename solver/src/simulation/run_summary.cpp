@@ -1,0 +1,107 @@
+#include "flapline/simulation/run_summary.hpp"
+
+#include <cstdarg>
+#include <cstdio>
+
+#include "flapline/common/math.hpp"
+
+namespace flapline {
+
+const char* const kCautions =
+    "Cautions: these are model estimates, not flight clearance. Test a new vehicle on a tether or "
+    "in a net first, and follow your local aviation rules and licensed practice.";
+
+namespace {
+
+std::string line(const char* fmt, ...) {
+  char buf[512];
+  va_list args;
+  va_start(args, fmt);
+  std::vsnprintf(buf, sizeof buf, fmt, args);
+  va_end(args);
+  return std::string(buf) + "\n";
+}
+
+std::string opt(const std::optional<double>& v, const char* fmt = "%.4g") {
+  if (!v) return "n/a";
+  char buf[64];
+  std::snprintf(buf, sizeof buf, fmt, *v);
+  return buf;
+}
+
+std::string header(const RunSummary& s) {
+  std::string out;
+  out += line("flapline run: %s", s.title.empty() ? "(untitled)" : s.title.c_str());
+  out += line("model %s, %d strips per wing, %d steps and %d samples per cycle at %.4g Hz",
+              s.model_label.c_str(), s.strips_per_wing, s.steps_per_cycle, s.samples_per_cycle,
+              s.frequency);
+  out += line("status: %s (%s; periodicity residual %.2e)", std::string(to_string(s.status)).c_str(),
+              s.message.c_str(), s.periodicity_residual);
+  return out;
+}
+
+std::string wrench_lines(const Wrench& w, const char* indent) {
+  std::string out;
+  out += line("%slift %+.5g N   thrust %+.5g N   side force %+.5g N", indent, -w.force.z(),
+              w.force.x(), w.force.y());
+  out += line("%sroll L %+.5g N m   pitch M %+.5g N m   yaw N %+.5g N m", indent, w.moment.x(),
+              w.moment.y(), w.moment.z());
+  return out;
+}
+
+std::string footer(const RunSummary& s) {
+  std::string out;
+  for (const auto& w : s.warnings) out += "warning: " + w + "\n";
+  out += kCautions;
+  out += "\n";
+  return out;
+}
+
+}  // namespace
+
+std::string RunSummary::brief_report() const {
+  std::string out = header(*this);
+  out += "cycle means, body axes (x forward, y right, z down; lift = -Z, thrust = X):\n";
+  out += wrench_lines(averages.mean, "  ");
+  out += line("  power to the air: mean %.5g W, peak %.5g W; actuator mean %.5g W",
+              averages.power_air_mean, averages.power_air_peak, averages.power_actuator_mean);
+  out += line("  mean lift coefficient %s, Re %s, reduced frequency %s, advance ratio %s",
+              opt(figures.mean_lift_coefficient).c_str(), opt(figures.reynolds_number, "%.0f").c_str(),
+              opt(figures.reduced_frequency).c_str(), opt(figures.advance_ratio).c_str());
+  out += line("  reverse flow: %.1f %% of strip samples", 100.0 * figures.reverse_flow_fraction);
+  return out + footer(*this);
+}
+
+std::string RunSummary::full_report() const {
+  std::string out = header(*this);
+  out += line("cycles run %d; lag-state periodicity residual %.2e", cycles, state_residual);
+  out += line("air: density %.5g kg/m^3, kinematic viscosity %.4g m^2/s", air_density,
+              kinematic_viscosity);
+  const Figures& f = figures;
+  out += line("wing: span %.5g m, area %.5g m^2 (one wing), mean chord %.5g m, aspect ratio %.4g",
+              f.span, f.area, f.mean_chord, f.aspect_ratio);
+  out += line("      r1 %.4f, r2 %.4f, r3 %.4f (non-dimensional radii of moments of area)", f.r1,
+              f.r2, f.r3);
+  out += line("gait: stroke amplitude (peak to peak) %.4g deg; airspeed %.4g m/s", 
+              f.stroke_amplitude / kDegree, f.airspeed);
+  out += line("reference speed U_ref %.5g m/s (RMS at r2 R)", f.reference_speed);
+  out += "cycle means, body axes (x forward, y right, z down; lift = -Z, thrust = X):\n";
+  out += " pair:\n" + wrench_lines(averages.mean, "   ");
+  out += " right wing:\n" + wrench_lines(averages.wing_mean[0], "   ");
+  out += " left wing:\n" + wrench_lines(averages.wing_mean[1], "   ");
+  out += line(" power to the air: mean %.5g W, peak %.5g W, mean of positive part %.5g W",
+              averages.power_air_mean, averages.power_air_peak, averages.power_air_mean_positive);
+  out += line(" actuator power:   mean %.5g W, peak %.5g W, mean of positive part %.5g W",
+              averages.power_actuator_mean, averages.power_actuator_peak,
+              averages.power_actuator_mean_positive);
+  out += line(" lift / power %s N/W; RMS of |F| %.5g N", opt(f.lift_to_power).c_str(),
+              averages.force_rms);
+  out += line(" mean lift coefficient %s, Reynolds number %s, reduced frequency %s, advance ratio %s",
+              opt(f.mean_lift_coefficient).c_str(), opt(f.reynolds_number, "%.0f").c_str(),
+              opt(f.reduced_frequency).c_str(), opt(f.advance_ratio).c_str());
+  out += line(" reverse flow %.1f %%, |alpha| > 30 deg %.1f %% of strip samples",
+              100.0 * f.reverse_flow_fraction, 100.0 * f.high_alpha_fraction);
+  return out + footer(*this);
+}
+
+}  // namespace flapline
