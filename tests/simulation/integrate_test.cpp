@@ -119,3 +119,18 @@ TEST_CASE("spanwise rows: every strip at every requested phase plus the cycle me
   CHECK((sh - rh.averages.wing_mean[0].force).norm() <= 1e-12 * rh.averages.force_rms);
   CHECK(sum.norm() > 0.0);
 }
+
+TEST_CASE("the per-step loop allocates nothing (checked in the FLAPLINE_CHECK_NO_MALLOC build)") {
+  // With the option on, Eigen aborts on any allocation inside the RK4 steps of these runs.
+  for (const ModelSpec& s : {samples::hover_insect(), samples::forward_bat()}) {
+    ModelSpec one = s;
+    one.simulation.min_cycles = one.simulation.max_cycles = 1;
+    const Model model(one);
+    Workspace ws(model);
+    const RunSummary r = simulate(model, ws);
+    CHECK(r.cycles == 1);
+  }
+#ifdef FLAPLINE_CHECK_NO_MALLOC
+  MESSAGE("allocation check active");
+#endif
+}

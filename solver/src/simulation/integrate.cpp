@@ -85,6 +85,15 @@ double cycle_change(const CycleStats& a, const CycleStats& b, double span) {
   return d == 0.0 ? 0.0 : std::numeric_limits<double>::infinity();
 }
 
+/// With FLAPLINE_CHECK_NO_MALLOC, Eigen asserts on any heap allocation while disallowed.
+inline void set_allocation_allowed(bool allowed) {
+#ifdef FLAPLINE_CHECK_NO_MALLOC
+  Eigen::internal::set_is_malloc_allowed(allowed);
+#else
+  (void)allowed;
+#endif
+}
+
 std::string percent(double f) {
   char buf[32];
   std::snprintf(buf, sizeof buf, "%.1f %%", 100.0 * f);
@@ -123,6 +132,7 @@ RunSummary simulate(const Model& model, Workspace& ws, const RunControl& control
 
   aero.initial_state(model, ws, 0.0, opt.start, ws.state);
   Eigen::VectorXd cycle_start_state = ws.state;
+  ws.stepper.adjust_size(ws.state);  // the stepper's buffers, once, before the step loop
   auto system = [&](const Eigen::VectorXd& x, Eigen::VectorXd& dxdt, double t) {
     aero.derivative(model, ws, t, x, dxdt);
   };
@@ -227,7 +237,9 @@ RunSummary simulate(const Model& model, Workspace& ws, const RunControl& control
     for (int k = 0; k < steps; ++k) {
       const double t = (static_cast<double>(cycle) * steps + k) * dt;
       if (k % stride == 0) record(t, k / stride);
+      set_allocation_allowed(false);
       ws.stepper.do_step(system, ws.state, t, dt);
+      set_allocation_allowed(true);
       if (!ws.state.allFinite()) {
         Eigen::Index j = 0;
         for (; j < ws.state.size(); ++j)

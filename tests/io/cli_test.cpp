@@ -1,0 +1,68 @@
+// The command-line tool end to end: output files, exit status, no partial files on bad input.
+#include <doctest/doctest.h>
+
+#include <filesystem>
+#include <fstream>
+#include <nlohmann/json.hpp>
+#include <string>
+
+#include "test_support.hpp"
+
+using namespace flapline;
+namespace fs = std::filesystem;
+
+TEST_CASE("flapline run writes history.csv, summary.json and spanwise.csv for every demo") {
+  for (const char* demo : {"hover_insect", "forward_bat", "rolling_bat"}) {
+    CAPTURE(demo);
+    const fs::path out = test::fresh_folder(std::string("cli_") + demo);
+    std::string log;
+    const int code = test::run_cli(
+        "run \"" + test::source_path(std::string("configs/") + demo + ".yaml") + "\" -o \"" +
+            out.string() + "\"",
+        log);
+    CHECK(code == 0);
+    CHECK(log.find("Cautions:") != std::string::npos);  // the run summary carries the cautions
+    for (const char* f : {"history.csv", "summary.json", "spanwise.csv"}) CHECK(fs::exists(out / f));
+    std::ifstream js(out / "summary.json");
+    const nlohmann::json j = nlohmann::json::parse(js);
+    CHECK(j["cycle_mean"]["lift_N"].get<double>() > 0.0);
+    CHECK(j.contains("cautions"));
+    CHECK(j["figures"].contains("reverse_flow_fraction"));
+    // No temporary file survives.
+    for (const auto& e : fs::directory_iterator(out))
+      CHECK(e.path().filename().string().find(".tmp-") == std::string::npos);
+    fs::remove_all(out);
+  }
+}
+
+TEST_CASE("bad input: exit status 2, one line naming the file and key, and no output left") {
+  const fs::path dir = test::source_path("tests/io/bad_input");
+  for (const auto& entry : fs::directory_iterator(dir)) {
+    if (entry.path().extension() != ".yaml") continue;
+    CAPTURE(entry.path().filename().string());
+    std::ifstream in(entry.path());
+    std::string first;
+    std::getline(in, first);
+    const std::string key = first.substr(first.find("expect: ") + 8);
+    const fs::path out = test::fresh_folder("bad_" + entry.path().stem().string());
+    std::string log;
+    const int code = test::run_cli("run \"" + entry.path().string() + "\" -o \"" + out.string() + "\"", log);
+    CHECK(code == 2);
+    CHECK(log.find("key '" + key + "'") != std::string::npos);
+    CHECK(log.find(entry.path().filename().string()) != std::string::npos);
+    CHECK(std::count(log.begin(), log.end(), '\n') == 1);
+    CHECK_FALSE(fs::exists(out));
+  }
+}
+
+TEST_CASE("--set errors and a missing file also exit with status 2") {
+  std::string log;
+  const fs::path out = test::fresh_folder("bad_set");
+  CHECK(test::run_cli("run \"" + test::source_path("configs/hover_insect.yaml") +
+                          "\" --set wing.strips=0 -o \"" + out.string() + "\"",
+                      log) == 2);
+  CHECK(log.find("--set wing.strips=0") != std::string::npos);
+  CHECK_FALSE(fs::exists(out));
+  CHECK(test::run_cli("run /nonexistent/case.yaml -o \"" + out.string() + "\"", log) == 2);
+  CHECK_FALSE(fs::exists(out));
+}

@@ -1,0 +1,127 @@
+// Reading cases from YAML: demo configs, overrides, and the bad-input catalogue (each entry's
+// first line names the key path its error must carry).
+#include <doctest/doctest.h>
+
+#include <filesystem>
+#include <fstream>
+#include <string>
+
+#include "flapline/common/errors.hpp"
+#include "flapline/common/math.hpp"
+#include "flapline/io/config.hpp"
+#include "flapline/samples/samples.hpp"
+#include "flapline/simulation/integrate.hpp"
+#include "test_support.hpp"
+
+using namespace flapline;
+namespace fs = std::filesystem;
+
+namespace {
+std::string expected_key(const fs::path& file) {
+  std::ifstream in(file);
+  std::string first;
+  std::getline(in, first);
+  const auto pos = first.find("expect: ");
+  REQUIRE(pos != std::string::npos);
+  return first.substr(pos + 8);
+}
+}  // namespace
+
+TEST_CASE("demo configs equal the invented samples they document") {
+  const std::pair<const char*, ModelSpec> demos[] = {
+      {"configs/hover_insect.yaml", samples::hover_insect()},
+      {"configs/forward_bat.yaml", samples::forward_bat()},
+      {"configs/rolling_bat.yaml", samples::rolling_bat()}};
+  for (const auto& [path, spec] : demos) {
+    CAPTURE(path);
+    const RunSummary from_yaml = simulate(io::load_model(test::source_path(path)));
+    const RunSummary from_code = simulate(Model(spec));
+    CHECK((from_yaml.averages.mean.force - from_code.averages.mean.force).norm() <=
+          1e-12 * from_code.averages.force_rms);
+    CHECK((from_yaml.averages.mean.moment - from_code.averages.mean.moment).norm() <=
+          1e-12 * from_code.averages.force_rms * spec.wing.span);
+    CHECK(from_yaml.figures.reverse_flow_fraction <= 0.05);  // leading edge first (DESIGN §2)
+  }
+}
+
+TEST_CASE("--set overrides any key, and a side block overrides the shared gait key by key") {
+  const std::string path = test::source_path("configs/rolling_bat.yaml");
+  const ModelSpec s = io::load_spec(path, {"gait.frequency=7.5", "wing.hinge=[0, 0.04, 0]",
+                                           "model.suction_recovery=0.5"});
+  CHECK(s.gait.frequency == 7.5);
+  CHECK(s.wing.hinge.y() == 0.04);
+  CHECK(s.aero.suction_recovery == 0.5);
+  // rolling_bat.yaml: left stroke amplitude 24°, the rest of the stroke shared with the right.
+  CHECK(s.gait.left.stroke.amplitude == doctest::Approx(24 * kDegree));
+  CHECK(s.gait.right.stroke.amplitude == doctest::Approx(30 * kDegree));
+  CHECK(s.gait.left.pitch.mean == doctest::Approx(96 * kDegree));
+  CHECK(s.gait.left.span_ratio.mean == doctest::Approx(0.8));
+}
+
+TEST_CASE("an override error is placed on the command line") {
+  const std::string path = test::source_path("configs/hover_insect.yaml");
+  try {
+    io::load_model(path, {"gait.frequency=-3"});
+    FAIL("no error");
+  } catch (const InputError& e) {
+    CHECK(e.key() == "gait.frequency");
+    CHECK(std::string(e.what()).find("--set gait.frequency=-3") != std::string::npos);
+  }
+  CHECK_THROWS_WITH_AS(io::load_model(path, {"wing.spna=0.1"}), doctest::Contains("did you mean 'span'"),
+                       InputError);
+}
+
+TEST_CASE("bad-input catalogue: every entry names its key path, file and line") {
+  const fs::path dir = test::source_path("tests/io/bad_input");
+  int count = 0;
+  for (const auto& entry : fs::directory_iterator(dir)) {
+    if (entry.path().extension() != ".yaml") continue;
+    ++count;
+    const std::string want = expected_key(entry.path());
+    CAPTURE(entry.path().filename().string());
+    try {
+      io::load_model(entry.path().string());
+      FAIL("accepted a bad config");
+    } catch (const InputError& e) {
+      CHECK(e.key() == want);
+      CHECK(e.file() == entry.path().string());
+      if (entry.path().stem() != "missing_frequency") CHECK(e.line() > 0);
+      CHECK(std::string(e.what()).find("key '" + want + "'") != std::string::npos);
+      CHECK(!e.allowed().empty());
+    }
+  }
+  CHECK(count >= 15);
+}
+
+TEST_CASE("a missing file is an input error naming the file") {
+  CHECK_THROWS_WITH_AS(io::load_model("/nonexistent/case.yaml"),
+                       doctest::Contains("/nonexistent/case.yaml"), InputError);
+}
+
+TEST_CASE("did-you-mean finds near misses only") {
+  CHECK(io::closest_match("strip", {"strips", "span", "chord"}) == "strips");
+  CHECK(io::closest_match("frequncy", {"frequency", "stroke"}) == "frequency");
+  CHECK(io::closest_match("banana", {"frequency", "stroke"}).empty());
+}
+
+TEST_CASE("planform table from CSV, relative to the config's folder") {
+  const fs::path dir = test::fresh_folder("csv_table");
+  fs::create_directories(dir);
+  std::ofstream(dir / "wing.csv") << "# invented test planform\nspan_fraction,chord,leading_edge\n"
+                                     "0,0.04,0.01\n0.5,0.04,0.01\n1,0.02,0.005\n";
+  std::ofstream(dir / "case.yaml") << "wing:\n  planform: table\n  span: 0.2\n  table_file: wing.csv\n"
+                                      "gait:\n  frequency: 10\n  stroke: 40\n";
+  const Model m = io::load_model((dir / "case.yaml").string());
+  // analytic: S = 0.04·0.1 + (0.04 + 0.02)/2·0.1 = 0.007 m²
+  CHECK(m.planform().area() == doctest::Approx(0.007).epsilon(1e-12));
+  std::ofstream(dir / "wing.csv") << "span_fraction,chord,leading_edge\n0,0.04,0.01\n1,x,0.005\n";
+  try {
+    io::load_model((dir / "case.yaml").string());
+    FAIL("accepted a bad CSV");
+  } catch (const InputError& e) {
+    CHECK(e.key() == "wing.table_file");
+    CHECK(e.file() == (dir / "wing.csv").string());
+    CHECK(e.line() == 3);
+  }
+  fs::remove_all(dir);
+}
