@@ -35,6 +35,19 @@ TEST_CASE("flapline run writes history.csv, summary.json and spanwise.csv for ev
   }
 }
 
+TEST_CASE("every demo also runs with the wagner model; the fixed-wing demo runs as written") {
+  for (const char* demo : {"hover_insect", "forward_bat", "rolling_bat", "pitching_wing"}) {
+    CAPTURE(demo);
+    const fs::path out = test::fresh_folder(std::string("cli_wagner_") + demo);
+    std::string log;
+    CHECK(test::run_cli("run \"" + test::source_path(std::string("configs/") + demo + ".yaml") +
+                            "\" --set model.kind=wagner -q -o \"" + out.string() + "\"",
+                        log) == 0);
+    CHECK(fs::exists(out / "summary.json"));
+    fs::remove_all(out);
+  }
+}
+
 TEST_CASE("bad input: exit status 2, one line naming the file and key, and no output left") {
   const fs::path dir = test::source_path("tests/io/bad_input");
   for (const auto& entry : fs::directory_iterator(dir)) {

@@ -27,7 +27,13 @@ struct RunArgs {
 int run_command(const RunArgs& a) {
   using namespace flapline;
   const Model model = io::load_model(a.config, a.sets);
-  const RunSummary summary = simulate(model);
+  RunSummary summary;
+  try {
+    summary = simulate(model);
+  } catch (InputError& e) {  // e.g. too few steps for the lag states: point at the key
+    io::locate_in_config(e, a.config, a.sets);
+    throw;
+  }
   const std::filesystem::path dir =
       a.out.empty() ? std::filesystem::path("results") / std::filesystem::path(a.config).stem()
                     : std::filesystem::path(a.out);

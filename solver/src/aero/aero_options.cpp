@@ -36,6 +36,16 @@ double RevolvingFit::drag_coefficient(double alpha) const {
   return drag_offset - drag_amplitude * std::cos((drag_rate * a - drag_shift) * kDegree);
 }
 
+WagnerCoefficients wagner_coefficients(WagnerFit fit) {
+  switch (fit) {
+    case WagnerFit::rt_jones:
+      return {0.165, 0.335, 0.0455, 0.3};
+    case WagnerFit::wp_jones:
+      return {0.165, 0.335, 0.041, 0.32};
+  }
+  return {0.165, 0.335, 0.0455, 0.3};
+}
+
 void validate(const AeroOptions& o) {
   if (!(o.suction_recovery >= 0.0 && o.suction_recovery <= 1.0))
     throw InputError("model.suction_recovery", format_number(o.suction_recovery),

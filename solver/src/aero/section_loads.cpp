@@ -26,6 +26,7 @@ void circulation_loads(const Model& model, Workspace& ws) {
   const double rho = model.air().density;
   const double eta = model.aero_options().suction_recovery;
   const double kappa = model.aero_options().vortex_lift;
+  const bool reverse_no_suction = model.aero_options().reverse_flow == ReverseFlow::no_suction;
   StripLoads& L = ws.loads;
   for (Eigen::Index k = 0; k < model.strip_count(); ++k) {
     const StripContext x = context(model, ws, k);
@@ -35,7 +36,8 @@ void circulation_loads(const Model& model, Workspace& ws) {
     const double w_s = w_e - 0.25 * x.pose.omega_s * c;   // leading-edge normal-wash
     const double normal = rho * gamma * x.sec.tangential_speed +
                           kappa * kPi * rho * c * w_s * std::abs(w_s);
-    const double suction = eta * kPi * rho * c * w_s * w_s;
+    const bool keep = !(reverse_no_suction && x.sec.tangential_speed < 0.0);
+    const double suction = keep ? eta * kPi * rho * c * w_s * w_s : 0.0;
     L.circulation(k) = gamma;
     L.w_suction(k) = w_s;
     L.force_quarter.col(k) = x.width * (normal * x.sec.normal_axis + suction * x.sec.chord_axis);

@@ -367,7 +367,8 @@ class Reader {
     const YAML::Node* primary = replace ? &over : (base.IsDefined() ? &base : nullptr);
     const std::string primary_path = replace ? over_path : shared_path;
     if (!primary && !over.IsDefined()) return w;
-    const Keys keys{"shape", "mean", "amplitude", "phase", "sharpness", "harmonics", "points"};
+    const Keys keys{"shape",     "mean",      "amplitude", "phase",
+                    "sharpness", "harmonics", "points",    "delay"};
     // Scalar shorthand: a constant.
     auto scalar_case = [&](const YAML::Node& n, const std::string& path) {
       w.mean = number(n, path) * scale;
@@ -403,7 +404,8 @@ class Reader {
         {WaveShape::fourier, {"shape", "mean", "phase", "harmonics"}},
         {WaveShape::smoothed_triangle, {"shape", "mean", "amplitude", "phase", "sharpness"}},
         {WaveShape::smoothed_square, {"shape", "mean", "amplitude", "phase", "sharpness"}},
-        {WaveShape::table, {"shape", "phase", "points"}}};
+        {WaveShape::table, {"shape", "phase", "points"}},
+        {WaveShape::step, {"shape", "mean", "amplitude", "delay"}}};
     const Keys& ok = applies.at(w.shape);
     for (const auto& k : keys) {
       const YAML::Node v = pick(k.c_str(), path);
@@ -414,6 +416,7 @@ class Reader {
     if (const YAML::Node n = pick("amplitude", path); n.IsDefined())
       w.amplitude = number(n, path) * scale;
     if (const YAML::Node n = pick("phase", path); n.IsDefined()) w.phase = number(n, path) * kDegree;
+    if (const YAML::Node n = pick("delay", path); n.IsDefined()) w.delay = number(n, path);
     if (w.shape == WaveShape::smoothed_triangle || w.shape == WaveShape::smoothed_square) {
       const YAML::Node n = pick("sharpness", path);
       if (!n.IsDefined()) fail(path, primary, "(missing)", "required for shape " + shape_name);
@@ -463,7 +466,11 @@ class Reader {
   }
 
   void read_model(const YAML::Node& m, AeroOptions& o) const {
-    check_keys(m, "model", {"kind", "coefficient_law", "suction_recovery", "vortex_lift", "fit"});
+    check_keys(m, "model", {"kind", "coefficient_law", "suction_recovery", "vortex_lift", "fit",
+                            "wagner_fit", "reverse_flow"});
+    if (has(m, "wagner_fit")) o.wagner_fit = choice<WagnerFit>(m["wagner_fit"], "model.wagner_fit");
+    if (has(m, "reverse_flow"))
+      o.reverse_flow = choice<ReverseFlow>(m["reverse_flow"], "model.reverse_flow");
     if (has(m, "kind")) o.kind = choice<ModelKind>(m["kind"], "model.kind");
     if (has(m, "coefficient_law"))
       o.law = choice<CoefficientLaw>(m["coefficient_law"], "model.coefficient_law");
@@ -615,6 +622,18 @@ std::string closest_match(const std::string& word, const std::vector<std::string
     }
   }
   return best;
+}
+
+void locate_in_config(InputError& error, const std::string& path,
+                      const std::vector<std::string>& overrides) {
+  try {
+    const Source src = parse(read_file(path), path, folder_of(path), overrides);
+    InputError located(written_key(src, error.key()), error.value(), error.allowed(), error.hint());
+    src.locate(located);
+    error = located;
+  } catch (const InputError&) {
+    error.locate(path, 0);  // the file changed under us: name it without a line
+  }
 }
 
 ModelSpec load_spec(const std::string& path, const std::vector<std::string>& overrides) {

@@ -25,6 +25,10 @@ Waveform::Waveform(WaveformSpec spec, const std::string& key, double scale)
   switch (s.shape) {
     case WaveShape::harmonic:
       break;
+    case WaveShape::step:
+      if (!(s.delay >= 0.0) || !std::isfinite(s.delay))
+        throw InputError(key + ".delay", format_number(s.delay), "must be >= 0 (s)");
+      break;
     case WaveShape::smoothed_triangle:
       if (!(s.sharpness > 0.0 && s.sharpness < 1.0))
         throw InputError(key + ".sharpness", format_number(s.sharpness),
@@ -92,6 +96,11 @@ Waveform::Waveform(WaveformSpec spec, const std::string& key, double scale)
       break;
     }
   }
+  if (s.shape == WaveShape::step) {
+    min_ = std::min(s.mean, s.mean + s.amplitude);
+    max_ = std::max(s.mean, s.mean + s.amplitude);
+    return;
+  }
   min_ = max_ = unit_cycle(0.0).value;
   auto take = [&](double u) {
     const double v = unit_cycle(u).value;
@@ -147,6 +156,9 @@ WaveSample Waveform::unit_cycle(double u) const {
       out.accel = norm * C * w * w * sech2 * (-sn - 2.0 * C * cs * cs * tg);
       return out;
     }
+    case WaveShape::step:  // handled in at(): it needs the absolute time
+      out.value = s.mean;
+      return out;
     case WaveShape::table: {
       const auto& x = s.table_fraction;
       const auto& y = s.table_value;
@@ -168,6 +180,11 @@ WaveSample Waveform::unit_cycle(double u) const {
 }
 
 WaveSample Waveform::at(double t, double frequency) const {
+  if (spec_.shape == WaveShape::step) {
+    WaveSample s;
+    s.value = spec_.mean + (t >= spec_.delay ? spec_.amplitude : 0.0);
+    return s;
+  }
   double u = frequency * t;
   u -= std::floor(u);
   WaveSample s = unit_cycle(u);

@@ -100,7 +100,53 @@ std::string percent(double f) {
   return buf;
 }
 
+/// RK4's stability region reaches −2.785 on the real axis; refuse a step that is too long for the
+/// fastest state (sampled over the cycle) instead of letting the run blow up.
+void check_step_size(const Model& model, Workspace& ws) {
+  if (ws.state.size() == 0) return;
+  double rate = 0.0;
+  for (int j = 0; j < 64; ++j)
+    rate = std::max(rate, model.aero().stiffest_rate(model, ws, j * model.period() / 64));
+  const double limit = 2.5;  // a margin below 2.785
+  const int steps = model.simulation().steps_per_cycle;
+  if (rate * model.period() / steps > limit) {
+    const int need = static_cast<int>(std::ceil(rate * model.period() / limit));
+    throw InputError("simulation.steps_per_cycle", std::to_string(steps),
+                     "must be at least " + std::to_string(need) +
+                         " for this case (the fastest lag state decays at " +
+                         format_number(rate) + " 1/s; RK4 needs rate x step < 2.5)",
+                     "slow flapping of a short chord at high speed needs many steps per cycle");
+  }
+}
+
 }  // namespace
+
+void advance(const Model& model, Workspace& ws, double t, double dt) {
+  const AeroModel& aero = model.aero();
+  auto system = [&](const Eigen::VectorXd& x, Eigen::VectorXd& dxdt, double time) {
+    aero.derivative(model, ws, time, x, dxdt);
+  };
+  set_allocation_allowed(false);
+  ws.stepper.do_step(system, ws.state, t, dt);
+  set_allocation_allowed(true);
+  if (!ws.state.allFinite()) {
+    Eigen::Index j = 0;
+    for (; j < ws.state.size(); ++j)
+      if (!std::isfinite(ws.state(j))) break;
+    throw NumericalError(t + dt, strip_name(model, j % model.strip_count()), "lag state");
+  }
+}
+
+LoadSample evaluate(const Model& model, Workspace& ws, double t) {
+  update_sections(model, ws, t);
+  model.aero().loads(model, ws, t, ws.state);
+  LoadSample out = sum_loads(model, ws, t);
+  // A non-finite strip load makes the sums non-finite; only then look for the culprit.
+  if (!out.total.force.allFinite() || !out.total.moment.allFinite() ||
+      !std::isfinite(out.power_air) || !std::isfinite(out.power_actuator))
+    check_loads(model, ws, t);
+  return out;
+}
 
 RunSummary simulate(const Model& model, const RunControl& control) {
   Workspace ws(model);
@@ -123,6 +169,8 @@ RunSummary simulate(const Model& model, Workspace& ws, const RunControl& control
   out.model_label = std::string(to_string(out.model));
   if (out.model == ModelKind::quasi_steady)
     out.model_label += " (" + std::string(to_string(model.aero_options().law)) + ")";
+  else
+    out.model_label += " (" + std::string(to_string(model.aero_options().wagner_fit)) + " fit)";
   out.frequency = model.frequency();
   out.steps_per_cycle = steps;
   out.samples_per_cycle = samples;
@@ -130,12 +178,10 @@ RunSummary simulate(const Model& model, Workspace& ws, const RunControl& control
   out.air_density = model.air().density;
   out.kinematic_viscosity = model.air().kinematic_viscosity;
 
+  check_step_size(model, ws);
   aero.initial_state(model, ws, 0.0, opt.start, ws.state);
   Eigen::VectorXd cycle_start_state = ws.state;
   ws.stepper.adjust_size(ws.state);  // the stepper's buffers, once, before the step loop
-  auto system = [&](const Eigen::VectorXd& x, Eigen::VectorXd& dxdt, double t) {
-    aero.derivative(model, ws, t, x, dxdt);
-  };
 
   const std::size_t keep_cycles =
       opt.history == HistoryKeep::all ? static_cast<std::size_t>(std::min(opt.max_cycles, 64)) : 1;
@@ -174,30 +220,13 @@ RunSummary simulate(const Model& model, Workspace& ws, const RunControl& control
   const double tan_high = std::tan(kHighAlpha);
 
   auto record = [&](double t, int sample_in_cycle) {
-    update_sections(model, ws, t);
-    aero.loads(model, ws, t, ws.state);
-    check_loads(model, ws, t);
     HistoryRow row;
-    row.loads = sum_loads(model, ws, t);
+    row.loads = evaluate(model, ws, t);
     for (std::size_t s = 0; s < 2; ++s)
       row.angles[s] = {ws.poses[s].stroke, ws.poses[s].deviation, ws.poses[s].pitch,
                        ws.poses[s].span_ratio};
     out.history.push_back(row);
     acc.add(row.loads);
-    acc.strip_samples += n2;
-    for (Eigen::Index k = 0; k < n2; ++k) {
-      const SectionState& sec = ws.sections[static_cast<std::size_t>(k)];
-      if (sec.tangential_speed < 0.0) ++acc.reverse;
-      // |atan2(w, U_t)| > 30°  <=>  U_t <= 0 (and w ≠ 0) or |w| > tan 30° U_t
-      if (std::abs(sec.w_half) > tan_high * std::max(sec.tangential_speed, 0.0)) ++acc.high_alpha;
-    }
-    for (int s = 0; s < 2; ++s) {
-      const SectionState ref =
-          section_state(ws.poses[static_cast<std::size_t>(s)], model.motion(static_cast<Side>(s)),
-                        r_ref, c_ref, le_ref, std::cos(tw_ref), std::sin(tw_ref));
-      acc.speed_sq += ref.speed * ref.speed;
-      ++acc.speed_count;
-    }
     // Force per unit span of every strip; the left wing's is mapped to body axes at the end.
     for (Eigen::Index k = 0; k < n2; ++k) {
       const std::size_t s = k < n ? 0 : 1;
@@ -237,15 +266,7 @@ RunSummary simulate(const Model& model, Workspace& ws, const RunControl& control
     for (int k = 0; k < steps; ++k) {
       const double t = (static_cast<double>(cycle) * steps + k) * dt;
       if (k % stride == 0) record(t, k / stride);
-      set_allocation_allowed(false);
-      ws.stepper.do_step(system, ws.state, t, dt);
-      set_allocation_allowed(true);
-      if (!ws.state.allFinite()) {
-        Eigen::Index j = 0;
-        for (; j < ws.state.size(); ++j)
-          if (!std::isfinite(ws.state(j))) break;
-        throw NumericalError(t + dt, strip_name(model, j % n2), "lag state");
-      }
+      advance(model, ws, t, dt);
     }
     cycles_done = cycle + 1;
     const CycleStats stats = acc.stats();
@@ -278,6 +299,25 @@ RunSummary simulate(const Model& model, Workspace& ws, const RunControl& control
   const Waveform& stroke = model.motion(Side::right).stroke;
   fig.stroke_amplitude = stroke.maximum() - stroke.minimum();
   fig.airspeed = (model.spec().flight.velocity - model.spec().flight.wind).norm();
+  // Kinematic figures over the output samples of one cycle (the same every cycle).
+  for (int j = 0; j < samples; ++j) {
+    const double t = (static_cast<double>(cycles_done - 1) + static_cast<double>(j) / samples) * period;
+    update_sections(model, ws, t);
+    acc.strip_samples += n2;
+    for (Eigen::Index k = 0; k < n2; ++k) {
+      const SectionState& sec = ws.sections[static_cast<std::size_t>(k)];
+      if (sec.tangential_speed < 0.0) ++acc.reverse;
+      // |atan2(w, U_t)| > 30°  <=>  |w| > tan 30° · max(U_t, 0)
+      if (std::abs(sec.w_half) > tan_high * std::max(sec.tangential_speed, 0.0)) ++acc.high_alpha;
+    }
+    for (int s = 0; s < 2; ++s) {
+      const SectionState ref =
+          section_state(ws.poses[static_cast<std::size_t>(s)], model.motion(static_cast<Side>(s)),
+                        r_ref, c_ref, le_ref, std::cos(tw_ref), std::sin(tw_ref));
+      acc.speed_sq += ref.speed * ref.speed;
+      ++acc.speed_count;
+    }
+  }
   fig.reference_speed = std::sqrt(acc.speed_sq / static_cast<double>(acc.speed_count));
   const double rho = model.air().density;
   const double lift = out.mean_lift();

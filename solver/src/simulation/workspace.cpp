@@ -1,5 +1,8 @@
 #include "flapline/simulation/workspace.hpp"
 
+#include <algorithm>
+#include <cmath>
+
 #include "flapline/simulation/model.hpp"
 
 namespace flapline {
@@ -20,10 +23,55 @@ Workspace::Workspace(const Model& model) {
   w_three_quarter.setZero(n);
   w_half.setZero(n);
   speed.setZero(n);
+  rate.setZero(n);
   sections.resize(static_cast<std::size_t>(n));
   loads.resize(n);
   state.setZero(model.aero().state_size(model));
   aero_scratch = model.aero().make_scratch(model);
+  const Eigen::Index slots = 2 * model.simulation().steps_per_cycle;
+  const double bytes = 2.0 * 8.0 * static_cast<double>(n) * static_cast<double>(slots);
+  if (state.size() > 0 && model.periodic_kinematics() && bytes <= 64.0 * 1024 * 1024) {
+    stage_rate.resize(n, slots);
+    stage_w34.resize(n, slots);
+    stage_filled.assign(static_cast<std::size_t>(slots), 0);
+  }
+  const std::size_t samples = static_cast<std::size_t>(model.simulation().samples_per_cycle);
+  const double sample_bytes =
+      static_cast<double>(samples) * static_cast<double>(n) * (sizeof(SectionState) + 48.0);
+  if (model.periodic_kinematics() && sample_bytes <= 64.0 * 1024 * 1024) {
+    sample_poses.resize(samples);
+    sample_sections.resize(samples * static_cast<std::size_t>(n));
+    sample_arrays.resize(n, 6 * static_cast<Eigen::Index>(samples));
+    sample_filled.assign(samples, 0);
+  }
+}
+
+namespace {
+/// Index of the cache slot of time t on a grid of `slots` per cycle, or −1 when t is off the grid.
+Eigen::Index slot_of(double t, double frequency, Eigen::Index slots) {
+  if (slots == 0) return -1;
+  const double u = t * frequency * static_cast<double>(slots);
+  const double nearest = std::round(u);
+  if (std::abs(u - nearest) >= 1e-6) return -1;
+  Eigen::Index j = static_cast<Eigen::Index>(nearest) % slots;
+  return j < 0 ? j + slots : j;
+}
+}  // namespace
+
+StageSpeeds stage_speeds(const Model& model, Workspace& ws, double t) {
+  const Eigen::Index j =
+      slot_of(t, model.frequency(), static_cast<Eigen::Index>(ws.stage_filled.size()));
+  if (j >= 0) {
+    if (!ws.stage_filled[static_cast<std::size_t>(j)]) {
+      update_speeds(model, ws, t);
+      ws.stage_rate.col(j) = ws.rate;
+      ws.stage_w34.col(j) = ws.w_three_quarter;
+      ws.stage_filled[static_cast<std::size_t>(j)] = 1;
+    }
+    return {ws.stage_rate.col(j), ws.stage_w34.col(j)};
+  }
+  update_speeds(model, ws, t);
+  return {ws.rate, ws.w_three_quarter};
 }
 
 void update_speeds(const Model& model, Workspace& ws, double t) {
@@ -39,9 +87,40 @@ void update_speeds(const Model& model, Workspace& ws, double t) {
     ws.w_half.segment(o, n) = ws.w_pivot.segment(o, n) + pose.omega_s * pair.half_arm.segment(o, n);
   }
   ws.speed = (ws.tangential.square() + ws.w_half.square()).sqrt();
+  ws.rate = ws.speed * pair.inverse_semichord;
 }
 
 void update_sections(const Model& model, Workspace& ws, double t) {
+  const Eigen::Index j =
+      slot_of(t, model.frequency(), static_cast<Eigen::Index>(ws.sample_filled.size()));
+  const Eigen::Index n2 = model.strip_count();
+  const auto arrays = [&] {
+    return std::array<Eigen::ArrayXd*, 6>{&ws.tangential, &ws.w_pivot, &ws.w_three_quarter,
+                                          &ws.w_half, &ws.speed, &ws.rate};
+  };
+  const std::size_t first = static_cast<std::size_t>(j) * static_cast<std::size_t>(n2);
+  if (j >= 0 && ws.sample_filled[static_cast<std::size_t>(j)]) {
+    ws.poses = ws.sample_poses[static_cast<std::size_t>(j)];
+    std::copy_n(ws.sample_sections.begin() + static_cast<std::ptrdiff_t>(first), n2,
+                ws.sections.begin());
+    const auto a = arrays();
+    for (std::size_t q = 0; q < a.size(); ++q)
+      *a[q] = ws.sample_arrays.col(6 * j + static_cast<Eigen::Index>(q));
+    return;
+  }
+  compute_sections(model, ws, t);
+  if (j >= 0) {
+    ws.sample_poses[static_cast<std::size_t>(j)] = ws.poses;
+    std::copy_n(ws.sections.begin(), n2,
+                ws.sample_sections.begin() + static_cast<std::ptrdiff_t>(first));
+    const auto a = arrays();
+    for (std::size_t q = 0; q < a.size(); ++q)
+      ws.sample_arrays.col(6 * j + static_cast<Eigen::Index>(q)) = *a[q];
+    ws.sample_filled[static_cast<std::size_t>(j)] = 1;
+  }
+}
+
+void compute_sections(const Model& model, Workspace& ws, double t) {
   update_speeds(model, ws, t);
   const Eigen::Index n = model.strips_per_wing();
   const Strips& st = model.strips();

@@ -41,6 +41,10 @@ class AeroModel {
   virtual void derivative(const Model& model, Workspace& ws, double t, const Eigen::VectorXd& x,
                           Eigen::VectorXd& dxdt) const = 0;
 
+  /// The largest decay rate (1/s) of the state equations at time t, for the explicit-step
+  /// stability check (0 without states).
+  virtual double stiffest_rate(const Model& model, Workspace& ws, double t) const;
+
   /// Per-strip loads at time t into ws.loads. ws.sections must already hold the kinematics at t
   /// (update_sections). Called at output times only.
   virtual void loads(const Model& model, Workspace& ws, double t,

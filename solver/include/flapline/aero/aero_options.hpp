@@ -8,12 +8,43 @@ namespace flapline {
 
 /// Which aerodynamic model a run uses.
 enum class ModelKind {
-  quasi_steady  ///< no states: loads follow the instantaneous kinematics
+  quasi_steady,  ///< no states: loads follow the instantaneous kinematics
+  wagner         ///< two Jones–Wagner lag states per strip (2D unsteady strips)
 };
 template <>
 struct EnumNames<ModelKind> {
-  static constexpr std::array<std::pair<ModelKind, std::string_view>, 1> items{
-      {{ModelKind::quasi_steady, "quasi_steady"}}};
+  static constexpr std::array<std::pair<ModelKind, std::string_view>, 2> items{
+      {{ModelKind::quasi_steady, "quasi_steady"}, {ModelKind::wagner, "wagner"}}};
+};
+
+/// Two-exponential fit of Wagner's indicial lift function, φ(s) ≈ 1 − A₁e^{−b₁s} − A₂e^{−b₂s}
+/// (s in semichords travelled).
+enum class WagnerFit {
+  rt_jones,  ///< A = (0.165, 0.335), b = (0.0455, 0.3): R.T. Jones, NACA Report 681 (1940)
+  wp_jones   ///< A = (0.165, 0.335), b = (0.041, 0.32): W.P. Jones, ARC R&M (1945)
+};
+template <>
+struct EnumNames<WagnerFit> {
+  static constexpr std::array<std::pair<WagnerFit, std::string_view>, 2> items{
+      {{WagnerFit::rt_jones, "rt_jones"}, {WagnerFit::wp_jones, "wp_jones"}}};
+};
+
+/// Coefficients of a Wagner fit.
+struct WagnerCoefficients {
+  double a1, a2;  ///< amplitudes A₁, A₂
+  double b1, b2;  ///< rates per semichord b₁, b₂
+};
+WagnerCoefficients wagner_coefficients(WagnerFit fit);
+
+/// What the lag models do where the air meets the trailing edge first (U_t < 0).
+enum class ReverseFlow {
+  attached,   ///< keep the attached-flow formulas unchanged (default; the share is reported)
+  no_suction  ///< drop the leading-edge suction there: a sharp edge facing the flow keeps none
+};
+template <>
+struct EnumNames<ReverseFlow> {
+  static constexpr std::array<std::pair<ReverseFlow, std::string_view>, 2> items{
+      {{ReverseFlow::attached, "attached"}, {ReverseFlow::no_suction, "no_suction"}}};
 };
 
 /// Coefficient law of the quasi-steady model.
@@ -52,6 +83,8 @@ struct AeroOptions {
   /// κ_v in [0, 2]: Polhamus vortex-lift factor, allowed only with suction_recovery = 0.
   double vortex_lift = 0.0;
   RevolvingFit fit;  ///< revolving_fit law only
+  WagnerFit wagner_fit = WagnerFit::rt_jones;     ///< lag models only
+  ReverseFlow reverse_flow = ReverseFlow::attached;  ///< thin-airfoil loads
 };
 
 /// Throws InputError for an option out of range.

@@ -15,7 +15,8 @@ namespace flapline {
 class Model;
 class Workspace;
 
-/// Loads from the effective normal-wash ws.loads.w_effective (one entry per strip).
+/// Loads from the effective normal-wash ws.loads.w_effective (one entry per strip). With
+/// reverse_flow = no_suction the suction is dropped where U_t < 0.
 void circulation_loads(const Model& model, Workspace& ws);
 
 /// Loads of the quasi-steady revolving-wing fit: ½ρU²c·C_L(α), C_D(α) with U, α from the pitch

@@ -7,6 +7,7 @@
 #include <string>
 #include <vector>
 
+#include "flapline/common/errors.hpp"
 #include "flapline/simulation/model.hpp"
 
 namespace flapline::io {
@@ -23,6 +24,11 @@ Model load_model(const std::string& path, const std::vector<std::string>& overri
 Model model_from_text(const std::string& text, const std::string& name,
                       const std::vector<std::string>& overrides = {},
                       const std::string& base_dir = ".");
+
+/// Place an error raised after loading (e.g. by the run's step-size check) at the line of its key
+/// in the config file, or on the command line when an override set it.
+void locate_in_config(InputError& error, const std::string& path,
+                      const std::vector<std::string>& overrides = {});
 
 /// The closest allowed word to `word` (edit distance), or empty when none is close.
 std::string closest_match(const std::string& word, const std::vector<std::string>& allowed);

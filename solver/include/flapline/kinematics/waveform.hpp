@@ -17,16 +17,19 @@ enum class WaveShape {
   fourier,            ///< x = mean + Σₙ aₙ sin(nθ₁ + φₙ), θ₁ = 2π f t
   smoothed_triangle,  ///< x = mean + amplitude asin(K sin θ)/asin K, 0 < K < 1 (Berman & Wang 2007)
   smoothed_square,    ///< x = mean + amplitude tanh(C sin θ)/tanh C, C > 0 (Berman & Wang 2007)
-  table               ///< periodic cubic spline through (cycle fraction, value) rows
+  table,              ///< periodic cubic spline through (cycle fraction, value) rows
+  step                ///< x = mean before `delay`, mean + amplitude after (not periodic; for
+                      ///< indicial checks of fixed wings: the impulse at the jump is not modelled)
 };
 template <>
 struct EnumNames<WaveShape> {
-  static constexpr std::array<std::pair<WaveShape, std::string_view>, 5> items{
+  static constexpr std::array<std::pair<WaveShape, std::string_view>, 6> items{
       {{WaveShape::harmonic, "harmonic"},
        {WaveShape::fourier, "fourier"},
        {WaveShape::smoothed_triangle, "smoothed_triangle"},
        {WaveShape::smoothed_square, "smoothed_square"},
-       {WaveShape::table, "table"}}};
+       {WaveShape::table, "table"},
+       {WaveShape::step, "step"}}};
 };
 
 /// Parameters of one waveform, in SI (angles in rad; the YAML layer converts from degrees).
@@ -36,6 +39,7 @@ struct WaveformSpec {
   double amplitude = 0.0;  ///< half the peak-to-peak swing, value units
   double phase = 0.0;      ///< rad, added to 2π f t
   double sharpness = 0.5;  ///< K in (0, 1) for smoothed_triangle, C in (0, 50] for smoothed_square
+  double delay = 0.0;      ///< s, time of the jump (step), >= 0
   std::vector<double> harmonic_amplitudes;  ///< fourier: aₙ for n = 1, 2, ...
   std::vector<double> harmonic_phases;      ///< fourier: φₙ (rad)
   std::vector<double> table_fraction;       ///< table: cycle fraction, 0 first, 1 last, increasing

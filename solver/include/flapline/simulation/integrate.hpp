@@ -18,6 +18,15 @@ struct RunControl {
   std::function<void(int cycles_done, double change)> on_cycle;
 };
 
+/// One RK4 step (Boost.Odeint runge_kutta4) of ws.state from t to t + dt. Allocation-free once
+/// the stepper has seen the state's size; throws NumericalError on a non-finite state.
+void advance(const Model& model, Workspace& ws, double t, double dt);
+
+/// Kinematics and per-strip loads at t for the current ws.state, summed into body axes
+/// (ws.sections and ws.loads hold the per-strip values afterwards). Throws NumericalError on a
+/// non-finite load.
+LoadSample evaluate(const Model& model, Workspace& ws, double t);
+
 /// Run a case. Throws NumericalError when a state or a load becomes non-finite.
 /// The Workspace must have been built from the same Model.
 RunSummary simulate(const Model& model, Workspace& ws, const RunControl& control = {});

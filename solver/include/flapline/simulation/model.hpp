@@ -40,6 +40,7 @@ struct PairArrays {
   Eigen::ArrayXd width;             ///< m
   Eigen::ArrayXd three_quarter_arm; ///< m, ¾-chord point aft of the pitch axis: 0.75c − x₀c
   Eigen::ArrayXd half_arm;          ///< m, mid-chord aft of the pitch axis: 0.5c − x₀c
+  Eigen::ArrayXd inverse_semichord; ///< 1/b = 2/c (1/m)
 };
 
 class Model {
@@ -61,6 +62,8 @@ class Model {
   Eigen::Index strip_count() const noexcept { return 2 * strips_.size(); }
   double frequency() const noexcept { return spec_.gait.frequency; }
   double period() const noexcept { return 1.0 / spec_.gait.frequency; }
+  /// True when every waveform repeats each cycle (no step), so kinematics depend on phase only.
+  bool periodic_kinematics() const noexcept { return periodic_; }
 
  private:
   ModelSpec spec_;
@@ -70,6 +73,7 @@ class Model {
   Air air_;
   std::array<WingMotion, 2> motion_;
   std::shared_ptr<const AeroModel> aero_;
+  bool periodic_ = true;
 };
 
 /// Side and strip number (0-based within its wing) of pair index k.

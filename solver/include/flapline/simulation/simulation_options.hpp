@@ -10,13 +10,17 @@ namespace flapline {
 
 /// Initial value of the lag states.
 enum class StartMode {
-  rest,         ///< states zero (an impulsive start)
-  quasi_steady  ///< states at their steady values for the kinematics at t = 0
+  rest,          ///< states zero (an impulsive start)
+  quasi_steady,  ///< states at their steady values for the kinematics at t = 0
+  periodic       ///< states on the periodic orbit of the uncoupled lag equations (one shooting
+                 ///< cycle; exact for the wagner model, a close first guess for coupled ones)
 };
 template <>
 struct EnumNames<StartMode> {
-  static constexpr std::array<std::pair<StartMode, std::string_view>, 2> items{
-      {{StartMode::rest, "rest"}, {StartMode::quasi_steady, "quasi_steady"}}};
+  static constexpr std::array<std::pair<StartMode, std::string_view>, 3> items{
+      {{StartMode::rest, "rest"},
+       {StartMode::quasi_steady, "quasi_steady"},
+       {StartMode::periodic, "periodic"}}};
 };
 
 /// Which samples the history keeps.
