@@ -27,10 +27,13 @@ TEST_CASE("uniform and cosine strips tile the span; centres never at the tip") {
     // Linear twist at the strip centre (analytic).
     CHECK(s.twist(15) == doctest::Approx(-6 * kDegree * s.radius(15)).epsilon(1e-12));
   }
-  // Cosine spacing r_j = R sin(πj/2N): finer at the tip than at the root (analytic).
+  // Cosine spacing r_j = R sin(πj/2N), centres at the angle mid-points R sin(π(j+½)/2N):
+  // finer at the tip than at the root (analytic).
   const Strips c = cut_into_strips(p, {16, StripSpacing::cosine});
   CHECK(c.width(15) < c.width(0));
   CHECK(c.edge_radius(1) == doctest::Approx(std::sin(kPi / 32)).epsilon(1e-14));
+  CHECK(c.radius(0) == doctest::Approx(std::sin(kPi / 64)).epsilon(1e-14));
+  CHECK(StripSpec{}.spacing == StripSpacing::uniform);  // the default
 }
 
 TEST_CASE("strip count out of range is an input error") {

@@ -48,6 +48,28 @@ TEST_CASE("every demo also runs with the wagner model; the fixed-wing demo runs 
   }
 }
 
+TEST_CASE("--state-space T writes the frozen-time matrices of a lag model") {
+  const fs::path out = test::fresh_folder("cli_state_space");
+  std::string log;
+  CHECK(test::run_cli("run \"" + test::source_path("configs/forward_bat.yaml") +
+                          "\" --set model.kind=lifting_line --state-space 0.05 -q -o \"" +
+                          out.string() + "\"",
+                      log) == 0);
+  std::ifstream js(out / "state_space.json");
+  const nlohmann::json j = nlohmann::json::parse(js);
+  CHECK(j["A"].size() == 80u);     // 2 states × 2 wings × 20 strips
+  CHECK(j["A"][0].size() == 80u);
+  CHECK(j["B"][0].size() == 40u);  // inputs: w_¾ per strip
+  CHECK(j["C"].size() == 40u);     // outputs: Γ per strip
+  CHECK(j["time_s"].get<double>() == 0.05);
+  fs::remove_all(out);
+  // The quasi-steady model has no states: refused, nothing written.
+  CHECK(test::run_cli("run \"" + test::source_path("configs/forward_bat.yaml") +
+                          "\" --state-space 0.05 -q -o \"" + out.string() + "\"",
+                      log) == 2);
+  CHECK_FALSE(fs::exists(out));
+}
+
 TEST_CASE("bad input: exit status 2, one line naming the file and key, and no output left") {
   const fs::path dir = test::source_path("tests/io/bad_input");
   for (const auto& entry : fs::directory_iterator(dir)) {

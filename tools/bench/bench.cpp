@@ -2,6 +2,9 @@
 // Figures go to the docs and closing notes; no test asserts a time.
 #include <benchmark/benchmark.h>
 
+#include <Eigen/LU>
+
+#include "flapline/aero/lifting_line.hpp"
 #include "flapline/samples/samples.hpp"
 #include "flapline/simulation/integrate.hpp"
 
@@ -46,8 +49,61 @@ void wagner_forward(benchmark::State& state) {
   run_cycles(state, with_model(samples::forward_bat(), ModelKind::wagner));
 }
 
+void lifting_line_hover(benchmark::State& state) {
+  run_cycles(state, with_model(samples::hover_insect(), ModelKind::lifting_line));
+}
+void lifting_line_forward(benchmark::State& state) {
+  run_cycles(state, with_model(samples::forward_bat(), ModelKind::lifting_line));
+}
+
+// Cost breakdown of one uncached lifting-line stage (20 strips per wing): assembling K, factorising
+// I − D₀K, and the rest of a derivative once the phase is cached.
+const Model& forward_lifting_line() {
+  static const Model model(bench_spec(with_model(samples::forward_bat(), ModelKind::lifting_line), 8));
+  return model;
+}
+void lifting_line_assemble_k(benchmark::State& state) {
+  const Model& model = forward_lifting_line();
+  Workspace ws(model);
+  double t = 0.0;
+  for (auto _ : state) {
+    Eigen::MatrixXd k = influence_matrix(model, ws, t);
+    benchmark::DoNotOptimize(k.data());
+    t += 1e-4;
+  }
+}
+void lifting_line_factorise(benchmark::State& state) {
+  const Model& model = forward_lifting_line();
+  Workspace ws(model);
+  const Eigen::MatrixXd k = influence_matrix(model, ws, 0.1);
+  const Eigen::Index n2 = model.strip_count();
+  const Eigen::MatrixXd s = Eigen::MatrixXd::Identity(n2, n2) - 0.5 * k;
+  Eigen::PartialPivLU<Eigen::MatrixXd> lu(n2);
+  for (auto _ : state) {
+    lu.compute(s);
+    benchmark::DoNotOptimize(lu.matrixLU().data());
+  }
+}
+void lifting_line_cached_derivative(benchmark::State& state) {
+  const Model& model = forward_lifting_line();
+  Workspace ws(model);
+  model.aero().initial_state(model, ws, 0.0, StartMode::quasi_steady, ws.state);
+  Eigen::VectorXd dx(ws.state.size());
+  const double dt = model.period() / model.simulation().steps_per_cycle;
+  model.aero().derivative(model, ws, dt, ws.state, dx);  // fills the phase
+  for (auto _ : state) {
+    model.aero().derivative(model, ws, dt, ws.state, dx);
+    benchmark::DoNotOptimize(dx.data());
+  }
+}
+
 }  // namespace
 
+BENCHMARK(lifting_line_hover)->Unit(benchmark::kMillisecond);
+BENCHMARK(lifting_line_forward)->Unit(benchmark::kMillisecond);
+BENCHMARK(lifting_line_assemble_k)->Unit(benchmark::kMicrosecond);
+BENCHMARK(lifting_line_factorise)->Unit(benchmark::kMicrosecond);
+BENCHMARK(lifting_line_cached_derivative)->Unit(benchmark::kMicrosecond);
 BENCHMARK(quasi_steady_hover)->Unit(benchmark::kMillisecond);
 BENCHMARK(quasi_steady_forward)->Unit(benchmark::kMillisecond);
 BENCHMARK(wagner_hover)->Unit(benchmark::kMillisecond);

@@ -1,9 +1,11 @@
 // flapline command-line tool. Exit status: 0 success, 1 output could not be written,
 // 2 bad input (config, options), 3 numerical failure during the run.
 #include <CLI/CLI.hpp>
+#include <cmath>
 #include <cstdio>
 #include <filesystem>
 #include <iostream>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -22,6 +24,7 @@ struct RunArgs {
   std::vector<std::string> sets;
   bool quiet = false;
   bool full = false;
+  std::optional<double> state_space_time;
 };
 
 int run_command(const RunArgs& a) {
@@ -41,10 +44,19 @@ int run_command(const RunArgs& a) {
   folder.add("history.csv", io::history_csv(summary));
   folder.add("summary.json", io::summary_json(summary, a.config));
   folder.add("spanwise.csv", io::spanwise_csv(summary));
+  if (a.state_space_time) {
+    if (model.aero_options().kind == ModelKind::quasi_steady)
+      throw InputError("--state-space", format_number(*a.state_space_time),
+                       "needs a model with states: model.kind wagner or lifting_line");
+    Workspace ws(model);
+    folder.add("state_space.json",
+               io::state_space_json(frozen_state_space(model, ws, *a.state_space_time), model));
+  }
   folder.commit();
   if (!a.quiet) {
     std::cout << (a.full ? summary.full_report() : summary.brief_report());
-    std::cout << "results: " << dir.string() << "/ (history.csv, summary.json, spanwise.csv)\n";
+    std::cout << "results: " << dir.string() << "/ (history.csv, summary.json, spanwise.csv"
+              << (a.state_space_time ? ", state_space.json" : "") << ")\n";
   }
   return 0;
 }
@@ -66,6 +78,19 @@ int main(int argc, char** argv) {
       ->take_all();
   cmd_run->add_flag("-q,--quiet", run.quiet, "Print nothing on success");
   cmd_run->add_flag("--full", run.full, "Print the full report instead of the short one");
+  cmd_run->add_option("--state-space", run.state_space_time,
+                      "Also write state_space.json: the frozen-time A, B, C, D of the lag states "
+                      "at time T (s)")
+      ->check(CLI::Validator(
+          [](std::string& v) {
+            try {
+              const double t = std::stod(v);
+              return t >= 0.0 && std::isfinite(t) ? std::string() : "must be a time >= 0 (s)";
+            } catch (const std::exception&) {
+              return std::string("must be a time >= 0 (s)");
+            }
+          },
+          "TIME>=0"));
 
   try {
     app.parse(argc, argv);

@@ -22,7 +22,12 @@ Strips cut_into_strips(const Planform& planform, const StripSpec& spec) {
   s.edge_chord = s.edge_radius.unaryExpr([&](double r) { return planform.chord(r); });
   s.edge_leading_edge = s.edge_radius.unaryExpr([&](double r) { return planform.leading_edge(r); });
   s.edge_twist = s.edge_radius.unaryExpr([&](double r) { return planform.twist(r); });
+  // Centres: mid-point of the edges (uniform) or of their angles θ (cosine), r_i = R sin θ_{i+½}.
+  // The angle mid-point makes the discrete lifting line reproduce Prandtl's and Glauert's
+  // solutions closely from a few strips (tests/aero/lifting_line_test.cpp).
   s.radius = 0.5 * (s.edge_radius.head(n) + s.edge_radius.tail(n));
+  if (spec.spacing == StripSpacing::cosine)
+    for (int i = 0; i < n; ++i) s.radius(i) = R * std::sin(0.5 * kPi * (i + 0.5) / n);
   s.width = s.edge_radius.tail(n) - s.edge_radius.head(n);
   s.chord = s.radius.unaryExpr([&](double r) { return planform.chord(r); });
   s.leading_edge = s.radius.unaryExpr([&](double r) { return planform.leading_edge(r); });

@@ -467,7 +467,9 @@ class Reader {
 
   void read_model(const YAML::Node& m, AeroOptions& o) const {
     check_keys(m, "model", {"kind", "coefficient_law", "suction_recovery", "vortex_lift", "fit",
-                            "wagner_fit", "reverse_flow"});
+                            "wagner_fit", "reverse_flow", "span_coupling"});
+    if (has(m, "span_coupling"))
+      o.span_coupling = choice<SpanCoupling>(m["span_coupling"], "model.span_coupling");
     if (has(m, "wagner_fit")) o.wagner_fit = choice<WagnerFit>(m["wagner_fit"], "model.wagner_fit");
     if (has(m, "reverse_flow"))
       o.reverse_flow = choice<ReverseFlow>(m["reverse_flow"], "model.reverse_flow");

@@ -74,7 +74,7 @@ std::string spanwise_csv(const RunSummary& s) {
   std::string out =
       "phase,wing,strip,radius_m,span_fraction,chord_m,X_per_span_N_m,Y_per_span_N_m,"
       "Z_per_span_N_m,lift_per_span_N_m,normal_force_per_span_N_m,circulation_m2_s,alpha_deg,"
-      "tangential_speed_m_s\n";
+      "tangential_speed_m_s,induced_wash_m_s\n";
   for (const SpanwiseRow& r : s.spanwise) {
     char buf[64];
     if (r.cycle_mean)
@@ -96,6 +96,7 @@ std::string spanwise_csv(const RunSummary& s) {
     else
       out += ",";
     cell(out, r.tangential_speed);
+    cell(out, r.induced_wash);
     out += "\n";
   }
   return out;
@@ -144,6 +145,7 @@ std::string summary_json(const RunSummary& s, const std::string& config_path) {
                   {"stroke_amplitude_deg", f.stroke_amplitude / kDegree},
                   {"airspeed_m_s", f.airspeed},
                   {"force_rms_N", a.force_rms},
+                  {"induced_drag_N", a.induced_drag_mean},
                   {"reverse_flow_fraction", f.reverse_flow_fraction},
                   {"high_alpha_fraction", f.high_alpha_fraction}};
   j["conventions"] =
@@ -152,6 +154,36 @@ std::string summary_json(const RunSummary& s, const std::string& config_path) {
       "moments about the body origin";
   j["cautions"] = kCautions;
   return j.dump(2) + "\n";
+}
+
+std::string state_space_json(const StateSpace& ss, const Model& model) {
+  using nlohmann::json;
+  auto rows = [](const Eigen::MatrixXd& m) {
+    json out = json::array();
+    for (Eigen::Index i = 0; i < m.rows(); ++i) {
+      json row = json::array();
+      for (Eigen::Index j = 0; j < m.cols(); ++j) row.push_back(m(i, j));
+      out.push_back(row);
+    }
+    return out;
+  };
+  const Eigen::Index n = model.strips_per_wing();
+  json j;
+  j["model"] = std::string(to_string(model.aero_options().kind));
+  j["time_s"] = ss.time;
+  j["strips_per_wing"] = n;
+  j["equations"] = "dx/dt = A x + B u, y = C x + D u";
+  j["state"] = "x = [x1 of strips 1..N of the right wing, then of the left wing; x2 likewise] "
+               "(lag states, m/s): " + std::to_string(ss.A.rows()) + " entries";
+  j["input"] = "u = kinematic three-quarter-chord normal-wash w_3/4 of each strip (m/s), right "
+               "wing first: " + std::to_string(ss.B.cols()) + " entries";
+  j["output"] = "y = bound circulation of each strip (m^2/s), right wing first: " +
+                std::to_string(ss.C.rows()) + " entries";
+  j["A"] = rows(ss.A);
+  j["B"] = rows(ss.B);
+  j["C"] = rows(ss.C);
+  j["D"] = rows(ss.D);
+  return j.dump() + "\n";
 }
 
 void OutputFolder::add(std::string name, std::string content) {

@@ -19,7 +19,7 @@ struct CycleAccumulator {
   std::array<Wrench, 2> wing_sum;
   double air_sum = 0, air_peak = -std::numeric_limits<double>::infinity(), air_pos = 0;
   double act_sum = 0, act_peak = -std::numeric_limits<double>::infinity(), act_pos = 0;
-  double force_sq = 0;
+  double force_sq = 0, induced = 0;
   long samples = 0, strip_samples = 0, reverse = 0, high_alpha = 0;
   double speed_sq = 0;
   long speed_count = 0;
@@ -35,6 +35,7 @@ struct CycleAccumulator {
     act_peak = std::max(act_peak, s.power_actuator);
     act_pos += std::max(0.0, s.power_actuator);
     force_sq += s.total.force.squaredNorm();
+    induced += s.induced_drag;
     ++samples;
   }
   CycleStats stats() const {
@@ -53,6 +54,7 @@ struct CycleAccumulator {
     c.power_actuator_peak = act_peak;
     c.power_actuator_mean_positive = act_pos * inv;
     c.force_rms = std::sqrt(force_sq * inv);
+    c.induced_drag_mean = induced * inv;
     return c;
   }
 };
@@ -126,6 +128,7 @@ void advance(const Model& model, Workspace& ws, double t, double dt) {
   auto system = [&](const Eigen::VectorXd& x, Eigen::VectorXd& dxdt, double time) {
     aero.derivative(model, ws, time, x, dxdt);
   };
+  ws.stepper.adjust_size(ws.state);  // sizes the stepper's buffers once; a no-op afterwards
   set_allocation_allowed(false);
   ws.stepper.do_step(system, ws.state, t, dt);
   set_allocation_allowed(true);
@@ -169,8 +172,11 @@ RunSummary simulate(const Model& model, Workspace& ws, const RunControl& control
   out.model_label = std::string(to_string(out.model));
   if (out.model == ModelKind::quasi_steady)
     out.model_label += " (" + std::string(to_string(model.aero_options().law)) + ")";
-  else
+  else if (out.model == ModelKind::wagner)
     out.model_label += " (" + std::string(to_string(model.aero_options().wagner_fit)) + " fit)";
+  else
+    out.model_label += " (" + std::string(to_string(model.aero_options().wagner_fit)) + " fit, " +
+                       std::string(to_string(model.aero_options().span_coupling)) + ")";
   out.frequency = model.frequency();
   out.steps_per_cycle = steps;
   out.samples_per_cycle = samples;
@@ -179,9 +185,9 @@ RunSummary simulate(const Model& model, Workspace& ws, const RunControl& control
   out.kinematic_viscosity = model.air().kinematic_viscosity;
 
   check_step_size(model, ws);
+  aero.prepare_run(model, ws);
   aero.initial_state(model, ws, 0.0, opt.start, ws.state);
   Eigen::VectorXd cycle_start_state = ws.state;
-  ws.stepper.adjust_size(ws.state);  // the stepper's buffers, once, before the step loop
 
   const std::size_t keep_cycles =
       opt.history == HistoryKeep::all ? static_cast<std::size_t>(std::min(opt.max_cycles, 64)) : 1;
@@ -202,7 +208,9 @@ RunSummary simulate(const Model& model, Workspace& ws, const RunControl& control
   // Per-strip force (virtual frame) and its cycle sums for the mean spanwise loading.
   Eigen::Matrix3Xd mean_force(3, n2);
   Eigen::ArrayXd mean_normal(n2), mean_gamma(n2), mean_tangential(n2), mean_radius(n2);
+  Eigen::ArrayXd mean_induced(n2);
   auto reset_means = [&] {
+    mean_induced.setZero();
     mean_force.setZero();
     mean_normal.setZero();
     mean_gamma.setZero();
@@ -238,6 +246,7 @@ RunSummary simulate(const Model& model, Workspace& ws, const RunControl& control
       mean_normal(k) += f.dot(sec.normal_axis);
       mean_gamma(k) += ws.loads.circulation(k);
       mean_tangential(k) += sec.tangential_speed;
+      mean_induced(k) += ws.loads.w_induced(k);
       mean_radius(k) += lambda * model.pair().radius(k);
       for (std::size_t p = 0; p < phase_sample.size(); ++p) {
         if (phase_sample[p] != sample_in_cycle) continue;
@@ -250,6 +259,7 @@ RunSummary simulate(const Model& model, Workspace& ws, const RunControl& control
         r.circulation = ws.loads.circulation(k);
         r.alpha = sec.alpha();
         r.tangential_speed = sec.tangential_speed;
+        r.induced_wash = ws.loads.w_induced(k);
       }
     }
   };
@@ -347,6 +357,7 @@ RunSummary simulate(const Model& model, Workspace& ws, const RunControl& control
     r.normal_force_per_span = mean_normal(k) * inv_samples;
     r.circulation = mean_gamma(k) * inv_samples;
     r.tangential_speed = mean_tangential(k) * inv_samples;
+    r.induced_wash = mean_induced(k) * inv_samples;
     r.radius = mean_radius(k) * inv_samples;
     r.alpha = std::numeric_limits<double>::quiet_NaN();  // a mean angle is not reported
     out.spanwise.push_back(r);

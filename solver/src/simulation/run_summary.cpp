@@ -94,8 +94,8 @@ std::string RunSummary::full_report() const {
   out += line(" actuator power:   mean %.5g W, peak %.5g W, mean of positive part %.5g W",
               averages.power_actuator_mean, averages.power_actuator_peak,
               averages.power_actuator_mean_positive);
-  out += line(" lift / power %s N/W; RMS of |F| %.5g N", opt(f.lift_to_power).c_str(),
-              averages.force_rms);
+  out += line(" lift / power %s N/W; RMS of |F| %.5g N; induced drag %.5g N",
+              opt(f.lift_to_power).c_str(), averages.force_rms, averages.induced_drag_mean);
   out += line(" mean lift coefficient %s, Reynolds number %s, reduced frequency %s, advance ratio %s",
               opt(f.mean_lift_coefficient).c_str(), opt(f.reynolds_number, "%.0f").c_str(),
               opt(f.reduced_frequency).c_str(), opt(f.advance_ratio).c_str());

@@ -14,6 +14,7 @@ void StripLoads::resize(Eigen::Index n) {
   circulation.setZero(n);
   w_effective.setZero(n);
   w_suction.setZero(n);
+  w_induced.setZero(n);
 }
 
 Workspace::Workspace(const Model& model) {

@@ -38,6 +38,10 @@ LoadSample sum_loads(const Model& model, const Workspace& ws, double t) {
     out.power_air += p_air;
     out.power_actuator += p_act;
   }
+  const double rho = model.air().density;
+  for (Eigen::Index k = 0; k < 2 * n; ++k)
+    out.induced_drag -= rho * L.circulation(k) * L.w_induced(k) *
+                        ws.poses[k < n ? 0 : 1].span_ratio * model.pair().width(k);
   return out;
 }
 

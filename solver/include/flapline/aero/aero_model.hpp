@@ -33,6 +33,10 @@ class AeroModel {
   /// Buffers for one run; null when the common Workspace suffices.
   virtual std::unique_ptr<AeroScratch> make_scratch(const Model& model) const;
 
+  /// Called by simulate() once before the step loop: the place for run-long buffers (e.g.
+  /// per-phase caches) that a Workspace used for single evaluations does not need.
+  virtual void prepare_run(const Model& model, Workspace& ws) const;
+
   /// Initial states at time t for a start mode (rest: zero).
   virtual void initial_state(const Model& model, Workspace& ws, double t, StartMode start,
                              Eigen::VectorXd& x) const = 0;

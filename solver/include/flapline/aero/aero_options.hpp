@@ -9,12 +9,29 @@ namespace flapline {
 /// Which aerodynamic model a run uses.
 enum class ModelKind {
   quasi_steady,  ///< no states: loads follow the instantaneous kinematics
-  wagner         ///< two Jones–Wagner lag states per strip (2D unsteady strips)
+  wagner,        ///< two Jones–Wagner lag states per strip (2D unsteady strips)
+  lifting_line   ///< the wagner states coupled through horseshoe vortices over both wings
 };
 template <>
 struct EnumNames<ModelKind> {
-  static constexpr std::array<std::pair<ModelKind, std::string_view>, 2> items{
-      {{ModelKind::quasi_steady, "quasi_steady"}, {ModelKind::wagner, "wagner"}}};
+  static constexpr std::array<std::pair<ModelKind, std::string_view>, 3> items{
+      {{ModelKind::quasi_steady, "quasi_steady"},
+       {ModelKind::wagner, "wagner"},
+       {ModelKind::lifting_line, "lifting_line"}}};
+};
+
+/// Which strips the lifting line couples.
+enum class SpanCoupling {
+  none,         ///< K = 0: the wagner model exactly (for checks)
+  within_wing,  ///< each wing's strips see their own wing's vortices only
+  both_wings    ///< every strip sees both wings' vortices (default)
+};
+template <>
+struct EnumNames<SpanCoupling> {
+  static constexpr std::array<std::pair<SpanCoupling, std::string_view>, 3> items{
+      {{SpanCoupling::none, "none"},
+       {SpanCoupling::within_wing, "within_wing"},
+       {SpanCoupling::both_wings, "both_wings"}}};
 };
 
 /// Two-exponential fit of Wagner's indicial lift function, φ(s) ≈ 1 − A₁e^{−b₁s} − A₂e^{−b₂s}
@@ -85,6 +102,7 @@ struct AeroOptions {
   RevolvingFit fit;  ///< revolving_fit law only
   WagnerFit wagner_fit = WagnerFit::rt_jones;     ///< lag models only
   ReverseFlow reverse_flow = ReverseFlow::attached;  ///< thin-airfoil loads
+  SpanCoupling span_coupling = SpanCoupling::both_wings;  ///< lifting_line only
 };
 
 /// Throws InputError for an option out of range.

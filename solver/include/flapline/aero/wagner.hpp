@@ -25,10 +25,4 @@ class WagnerModel final : public AeroModel {
   double stiffest_rate(const Model& model, Workspace& ws, double t) const override;
 };
 
-/// Lag states of the wagner equations on their periodic orbit at t = 0 for the run's step size:
-/// one RK4 cycle of the forced equations from zero gives x_T, one of the homogeneous equations
-/// from one gives the per-state amplification Φ, and x₀ = x_T/(1 − Φ) (each state obeys its own
-/// linear equation, so this is exact for the discrete map). Used by StartMode::periodic.
-void wagner_periodic_state(const Model& model, Workspace& ws, Eigen::VectorXd& x);
-
 }  // namespace flapline

@@ -12,8 +12,8 @@ namespace flapline {
 
 /// How strip edges are spaced along the span.
 enum class StripSpacing {
-  uniform,  ///< equal widths
-  cosine    ///< half-cosine, r_j = R sin(π j / 2N): fine at the tip, coarse at the root
+  uniform,  ///< equal widths, centres at the edge mid-points
+  cosine    ///< half-cosine edges r_j = R sin(πj/2N), centres R sin(π(j+½)/2N): fine at the tip
 };
 template <>
 struct EnumNames<StripSpacing> {
@@ -28,7 +28,7 @@ struct StripSpec {
 };
 
 /// One wing's strips. Every array has one entry per strip (N) except the edge arrays (N + 1).
-/// Values are taken at the strip centre (the mid-point of its edges), never at the exact tip.
+/// Values are taken at the strip centre (never at the exact tip).
 struct Strips {
   Eigen::ArrayXd edge_radius;        ///< m, strip edges from root to tip
   Eigen::ArrayXd edge_chord;         ///< m, chord at the edges

@@ -8,6 +8,7 @@
 #include <utility>
 #include <vector>
 
+#include "flapline/aero/lifting_line.hpp"
 #include "flapline/simulation/model.hpp"
 #include "flapline/simulation/run_summary.hpp"
 
@@ -22,6 +23,10 @@ std::string spanwise_csv(const RunSummary& summary);
 
 /// summary.json: every cycle average and figure, units in the key names.
 std::string summary_json(const RunSummary& summary, const std::string& config_path = {});
+
+/// state_space.json: the frozen-time matrices A, B, C, D (row by row) with their dimensions and
+/// the ordering of states, inputs and outputs.
+std::string state_space_json(const StateSpace& ss, const Model& model);
 
 /// Collects files and writes them all or none: each goes to a temporary name in the target
 /// folder and is renamed only when every write succeeded. A failed or abandoned commit leaves no

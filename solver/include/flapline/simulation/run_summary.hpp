@@ -48,6 +48,7 @@ struct CycleStats {
   double power_air_mean = 0, power_air_peak = 0, power_air_mean_positive = 0;        ///< W
   double power_actuator_mean = 0, power_actuator_peak = 0, power_actuator_mean_positive = 0;
   double force_rms = 0;  ///< RMS of |F| of the pair over the cycle (N)
+  double induced_drag_mean = 0;  ///< cycle mean of LoadSample::induced_drag (N)
 };
 
 /// Derived figures (DESIGN §5).
@@ -83,6 +84,7 @@ struct SpanwiseRow {
   double circulation = 0;            ///< m²/s
   double alpha = 0;                  ///< rad (NaN in cycle-mean rows)
   double tangential_speed = 0;       ///< U_t (m/s)
+  double induced_wash = 0;           ///< KΓ at the control point (m/s; lifting line)
 };
 
 struct RunSummary {

@@ -25,6 +25,7 @@ struct StripLoads {
   Eigen::ArrayXd circulation;      ///< Γ (m²/s), + along e_c × e_n
   Eigen::ArrayXd w_effective;      ///< w_E (m/s)
   Eigen::ArrayXd w_suction;        ///< w_S (m/s)
+  Eigen::ArrayXd w_induced;        ///< KΓ, induced normal-wash at the control point (m/s)
   void resize(Eigen::Index n);
 };
 

@@ -32,6 +32,9 @@ struct LoadSample {
   /// Actuator power, with velocities and rates relative to the body (W).
   double power_actuator = 0.0;
   std::array<double, 2> wing_power_air{0.0, 0.0};
+  /// Induced drag −ρΣΓ·w_i·width (N): the force tilt from the induced normal-wash w_i = KΓ
+  /// (lifting line only; 0 otherwise). For a steady wing it is the drag.
+  double induced_drag = 0.0;
 };
 
 /// Sum ws.loads (virtual frames) into body axes: forces Mv and moments −Mv for the left wing.
