@@ -70,6 +70,52 @@ TEST_CASE("--state-space T writes the frozen-time matrices of a lag model") {
   CHECK_FALSE(fs::exists(out));
 }
 
+TEST_CASE("--plot renders the run's figures when gnuplot is there, and says so when not") {
+  const fs::path out = test::fresh_folder("cli_plots");
+  std::string log;
+  CHECK(test::run_cli("run \"" + test::source_path("configs/forward_bat.yaml") + "\" -o \"" +
+                          out.string() + "\"",
+                      log) == 0);
+  if (log.find("figures skipped") == std::string::npos) {
+    for (const char* f : {"forces", "moments", "power", "gait", "spanwise", "planform", "stroke"}) {
+      CAPTURE(f);
+      CHECK(fs::file_size(out / (std::string(f) + ".png")) > 1000);
+      CHECK(fs::exists(out / (std::string(f) + ".svg")));
+    }
+  } else {
+    CHECK_FALSE(fs::exists(out / "forces.png"));
+  }
+  fs::remove_all(out);
+  // --no-plot writes only the data files.
+  CHECK(test::run_cli("run \"" + test::source_path("configs/forward_bat.yaml") +
+                          "\" --no-plot -q -o \"" + out.string() + "\"",
+                      log) == 0);
+  CHECK_FALSE(fs::exists(out / "forces.png"));
+  fs::remove_all(out);
+}
+
+TEST_CASE("compare runs every case with the same model and tabulates them side by side") {
+  const fs::path out = test::fresh_folder("cli_compare");
+  std::string log;
+  CHECK(test::run_cli("compare \"" + test::source_path("configs/forward_bat.yaml") + "\" \"" +
+                          test::source_path("configs/rolling_bat.yaml") +
+                          "\" --model wagner --no-plot -q -o \"" + out.string() + "\"",
+                      log) == 0);
+  std::ifstream csv(out / "comparison.csv");
+  std::string header, lift_row;
+  std::getline(csv, header);
+  std::getline(csv, lift_row);
+  CHECK(header == "quantity,forward_bat,rolling_bat");
+  CHECK(lift_row.rfind("\"mean lift (N)\",", 0) == 0);
+  std::ifstream md(out / "comparison.md");
+  const std::string text((std::istreambuf_iterator<char>(md)), std::istreambuf_iterator<char>());
+  CHECK(text.find("model wagner") != std::string::npos);
+  CHECK(text.find("| mean roll moment L (N m) |") != std::string::npos);
+  fs::remove_all(out);
+  // One config is not a comparison.
+  CHECK(test::run_cli("compare \"" + test::source_path("configs/forward_bat.yaml") + "\"", log) == 2);
+}
+
 TEST_CASE("bad input: exit status 2, one line naming the file and key, and no output left") {
   const fs::path dir = test::source_path("tests/io/bad_input");
   for (const auto& entry : fs::directory_iterator(dir)) {

@@ -1,6 +1,10 @@
-// flapline command-line tool. Exit status: 0 success, 1 output could not be written,
-// 2 bad input (config, options), 3 numerical failure during the run.
+// flapline command-line tool: a thin shell over flapline::core, flapline::io and the validation
+// runner. Exit status: 0 success, 1 output could not be written, 2 bad input (config, options),
+// 3 numerical failure during a run, 4 a validation check failed.
+#include <unistd.h>
+
 #include <CLI/CLI.hpp>
+#include <chrono>
 #include <cmath>
 #include <cstdio>
 #include <filesystem>
@@ -9,45 +13,96 @@
 #include <string>
 #include <vector>
 
+#include "flapline/aero/lifting_line.hpp"
 #include "flapline/common/errors.hpp"
+#include "flapline/io/comparison.hpp"
 #include "flapline/io/config.hpp"
+#include "flapline/io/plots.hpp"
+#include "flapline/io/run_plots.hpp"
 #include "flapline/io/writers.hpp"
 #include "flapline/simulation/integrate.hpp"
+#include "flapline/validation/validation.hpp"
 
 namespace {
 
-constexpr int kExitWrite = 1, kExitInput = 2, kExitNumerical = 3;
+using namespace flapline;
+namespace fs = std::filesystem;
 
+constexpr int kExitWrite = 1, kExitInput = 2, kExitNumerical = 3, kExitValidation = 4;
+const char* const kNoGnuplot = "figures skipped: gnuplot (with PNG and SVG output) is not installed";
+
+/// Progress on a terminal for runs longer than about a second; silent otherwise.
+class Progress {
+ public:
+  Progress(bool quiet, std::string label)
+      : enabled_(!quiet && ::isatty(STDERR_FILENO)), label_(std::move(label)),
+        start_(std::chrono::steady_clock::now()) {}
+  ~Progress() { done(); }
+  RunControl control() {
+    RunControl c;
+    if (enabled_)
+      c.on_cycle = [this](int cycles, double change) {
+        const double elapsed = std::chrono::duration<double>(std::chrono::steady_clock::now() - start_).count();
+        if (elapsed < 1.0) return;
+        std::fprintf(stderr, "\r%s: cycle %d, change of the cycle means %.2e   ", label_.c_str(),
+                     cycles, std::isfinite(change) ? change : 0.0);
+        shown_ = true;
+      };
+    return c;
+  }
+  void done() {
+    if (shown_) std::fprintf(stderr, "\r%*s\r", 78, "");
+    shown_ = false;
+  }
+
+ private:
+  bool enabled_;
+  std::string label_;
+  std::chrono::steady_clock::time_point start_;
+  bool shown_ = false;
+};
+
+RunSummary run_model(const Model& model, const std::string& config,
+                     const std::vector<std::string>& sets, bool quiet) {
+  Progress progress(quiet, fs::path(config).filename().string());
+  try {
+    RunSummary s = simulate(model, progress.control());
+    progress.done();
+    return s;
+  } catch (InputError& e) {  // e.g. too few steps for the lag states: point at the key
+    progress.done();
+    io::locate_in_config(e, config, sets);
+    throw;
+  }
+}
+
+// --- run ----------------------------------------------------------------------------------------
 struct RunArgs {
-  std::string config;
-  std::string out;
+  std::string config, out;
   std::vector<std::string> sets;
-  bool quiet = false;
-  bool full = false;
+  bool quiet = false, full = false, plot = true;
   std::optional<double> state_space_time;
 };
 
 int run_command(const RunArgs& a) {
-  using namespace flapline;
   const Model model = io::load_model(a.config, a.sets);
-  RunSummary summary;
-  try {
-    summary = simulate(model);
-  } catch (InputError& e) {  // e.g. too few steps for the lag states: point at the key
-    io::locate_in_config(e, a.config, a.sets);
-    throw;
-  }
-  const std::filesystem::path dir =
-      a.out.empty() ? std::filesystem::path("results") / std::filesystem::path(a.config).stem()
-                    : std::filesystem::path(a.out);
+  if (a.state_space_time && model.aero_options().kind == ModelKind::quasi_steady)
+    throw InputError("--state-space", format_number(*a.state_space_time),
+                     "needs a model with states: model.kind wagner or lifting_line");
+  const RunSummary summary = run_model(model, a.config, a.sets, a.quiet);
+  const fs::path dir = a.out.empty() ? fs::path("results") / fs::path(a.config).stem() : fs::path(a.out);
   io::OutputFolder folder(dir);
   folder.add("history.csv", io::history_csv(summary));
   folder.add("summary.json", io::summary_json(summary, a.config));
   folder.add("spanwise.csv", io::spanwise_csv(summary));
+  std::string plot_note;
+  if (a.plot) {
+    if (io::gnuplot_available())
+      for (auto& [name, content] : io::run_plots(summary, model)) folder.add(name, content);
+    else
+      plot_note = kNoGnuplot;
+  }
   if (a.state_space_time) {
-    if (model.aero_options().kind == ModelKind::quasi_steady)
-      throw InputError("--state-space", format_number(*a.state_space_time),
-                       "needs a model with states: model.kind wagner or lifting_line");
     Workspace ws(model);
     folder.add("state_space.json",
                io::state_space_json(frozen_state_space(model, ws, *a.state_space_time), model));
@@ -56,9 +111,117 @@ int run_command(const RunArgs& a) {
   if (!a.quiet) {
     std::cout << (a.full ? summary.full_report() : summary.brief_report());
     std::cout << "results: " << dir.string() << "/ (history.csv, summary.json, spanwise.csv"
-              << (a.state_space_time ? ", state_space.json" : "") << ")\n";
+              << (a.state_space_time ? ", state_space.json" : "")
+              << (a.plot && plot_note.empty() ? ", figures *.png and *.svg" : "") << ")\n";
+    if (!plot_note.empty()) std::cout << plot_note << "\n";
   }
   return 0;
+}
+
+// --- compare ------------------------------------------------------------------------------------
+struct CompareArgs {
+  std::vector<std::string> configs, sets;
+  std::string out, model;
+  int strips = 0, steps = 0;
+  bool quiet = false, plot = true;
+};
+
+int compare_command(const CompareArgs& a) {
+  // Same model and resolution for every case: the first config's, unless given here.
+  const ModelSpec first = io::load_spec(a.configs.front(), a.sets);
+  std::vector<std::string> common = a.sets;
+  const std::string kind = a.model.empty() ? std::string(to_string(first.aero.kind)) : a.model;
+  const int strips = a.strips > 0 ? a.strips : first.strips.count;
+  const int steps = a.steps > 0 ? a.steps : first.simulation.steps_per_cycle;
+  common.push_back("model.kind=" + kind);
+  common.push_back("wing.strips=" + std::to_string(strips));
+  common.push_back("simulation.steps_per_cycle=" + std::to_string(steps));
+  common.push_back("simulation.samples_per_cycle=" + std::to_string(first.simulation.samples_per_cycle));
+  std::vector<io::ComparedCase> cases;
+  for (const auto& config : a.configs) {
+    const Model model = io::load_model(config, common);
+    cases.push_back({fs::path(config).stem().string(), run_model(model, config, common, a.quiet)});
+  }
+  const std::string settings =
+      "Every case run with model " + kind + ", " + std::to_string(strips) + " strips per wing, " +
+      std::to_string(steps) + " steps and " + std::to_string(first.simulation.samples_per_cycle) +
+      " samples per cycle; cycle means of the last cycle.";
+  const fs::path dir = a.out.empty() ? fs::path("results") / "comparison" : fs::path(a.out);
+  io::OutputFolder folder(dir);
+  folder.add("comparison.csv", io::comparison_csv(cases));
+  folder.add("comparison.md", io::comparison_markdown(cases, settings));
+  std::string plot_note;
+  if (a.plot) {
+    if (io::gnuplot_available())
+      for (auto& [name, content] : io::comparison_plots(cases)) folder.add(name, content);
+    else
+      plot_note = kNoGnuplot;
+  }
+  folder.commit();
+  if (!a.quiet) {
+    std::cout << settings << "\n";
+    std::printf("%-32s", "quantity");
+    for (const auto& c : cases) std::printf(" %14s", c.name.substr(0, 14).c_str());
+    std::printf("\n");
+    for (const auto& q : io::compared_quantities()) {
+      std::printf("%-32s", q.label.c_str());
+      for (const auto& c : cases) std::printf(" %14.5g", q.value(c.summary));
+      std::printf("\n");
+    }
+    std::cout << "results: " << dir.string() << "/ (comparison.csv, comparison.md"
+              << (a.plot && plot_note.empty() ? ", lift_overlay and power_overlay figures" : "")
+              << ")\n";
+    if (!plot_note.empty()) std::cout << plot_note << "\n";
+    std::cout << kCautions << "\n";
+  }
+  return 0;
+}
+
+// --- validate -----------------------------------------------------------------------------------
+struct ValidateArgs {
+  std::string out, only, cases_dir;
+  bool quiet = false, plot = true;
+};
+
+int validate_command(const ValidateArgs& a) {
+  const fs::path dir = a.cases_dir.empty() ? validation::default_cases_dir() : fs::path(a.cases_dir);
+  const std::vector<validation::CaseSpec> cases = validation::load_cases(dir, a.only);
+  std::vector<validation::CaseResult> results;
+  const bool plots = a.plot && io::gnuplot_available();
+  const fs::path out = a.out.empty() ? fs::path("results") / "validation" : fs::path(a.out);
+  io::OutputFolder folder(out);
+  bool all_ok = true;
+  for (const auto& spec : cases) {
+    const auto t0 = std::chrono::steady_clock::now();
+    results.push_back(validation::run_case(spec));
+    const validation::CaseResult& r = results.back();
+    all_ok = all_ok && r.ok();
+    if (plots)
+      for (std::size_t f = 0; f < r.figures.size(); ++f)
+        for (auto& [name, content] :
+             io::render(r.figures[f], spec.name + (f == 0 ? std::string() : "_" + std::to_string(f + 1))))
+          folder.add(name, content);
+    if (!a.quiet) {
+      const long ok = std::count_if(r.checks.begin(), r.checks.end(),
+                                    [](const validation::Check& c) { return c.pass; });
+      std::printf("%-18s %3ld / %-3zu checks pass  %6.2f s  %s\n", spec.name.c_str(), ok,
+                  r.checks.size(),
+                  std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count(),
+                  r.failure.empty() ? "" : ("could not run: " + r.failure).c_str());
+      for (const auto& c : r.checks)
+        if (!c.pass)
+          std::printf("  FAIL %s: flapline %.6g, reference %.6g, error %.3g > %.3g\n",
+                      c.quantity.c_str(), c.value, c.reference, c.error, c.tolerance);
+    }
+  }
+  const std::string note = plots ? "One figure per case beside this report."
+                                 : a.plot ? std::string(kNoGnuplot) + "." : "Figures not requested.";
+  folder.add("report.md", validation::report_markdown(results, note));
+  folder.commit();
+  if (!a.quiet)
+    std::cout << (all_ok ? "all validation checks pass" : "VALIDATION FAILED") << "; report: "
+              << (out / "report.md").string() << (plots ? "" : " (" + note + ")") << "\n";
+  return all_ok ? 0 : kExitValidation;
 }
 
 }  // namespace
@@ -73,11 +236,12 @@ int main(int argc, char** argv) {
       "run", "Run one case: force and moment histories, cycle means, power, spanwise loading");
   cmd_run->add_option("config", run.config, "YAML case file (keys: configs/README.md)")->required();
   cmd_run->add_option("-o,--out", run.out, "Output folder (default: results/<config name>)");
-  cmd_run->add_option("--set", run.sets,
-                      "Override a config key, e.g. --set gait.frequency=30 (repeatable)")
+  cmd_run->add_option("--set", run.sets, "Override a config key, e.g. --set gait.frequency=30")
       ->take_all();
-  cmd_run->add_flag("-q,--quiet", run.quiet, "Print nothing on success");
+  cmd_run->add_flag("-q,--quiet", run.quiet, "Print nothing on success (and no progress)");
   cmd_run->add_flag("--full", run.full, "Print the full report instead of the short one");
+  cmd_run->add_flag("--plot,!--no-plot", run.plot,
+                    "Render figures with gnuplot (default: on when gnuplot is installed)");
   cmd_run->add_option("--state-space", run.state_space_time,
                       "Also write state_space.json: the frozen-time A, B, C, D of the lag states "
                       "at time T (s)")
@@ -92,6 +256,30 @@ int main(int argc, char** argv) {
           },
           "TIME>=0"));
 
+  CompareArgs cmp;
+  CLI::App* cmd_cmp = app.add_subcommand(
+      "compare", "Run several cases with the same model and resolution; tabulate and overlay them");
+  cmd_cmp->add_option("configs", cmp.configs, "Two or more YAML case files")->required()->expected(2, -1);
+  cmd_cmp->add_option("-o,--out", cmp.out, "Output folder (default: results/comparison)");
+  cmd_cmp->add_option("--model", cmp.model, "Model for every case (default: the first config's)")
+      ->check(CLI::IsMember({"quasi_steady", "wagner", "lifting_line"}));
+  cmd_cmp->add_option("--strips", cmp.strips, "Strips per wing for every case (default: the first config's)")
+      ->check(CLI::Range(1, 400));
+  cmd_cmp->add_option("--steps", cmp.steps, "RK4 steps per cycle for every case (default: the first config's)")
+      ->check(CLI::Range(20, 100000));
+  cmd_cmp->add_option("--set", cmp.sets, "Override a key in every config")->take_all();
+  cmd_cmp->add_flag("-q,--quiet", cmp.quiet, "Print nothing on success");
+  cmd_cmp->add_flag("--plot,!--no-plot", cmp.plot, "Overlay figures with gnuplot (default: on)");
+
+  ValidateArgs val;
+  CLI::App* cmd_val = app.add_subcommand(
+      "validate", "Run the validation cases against classical results and write report.md");
+  cmd_val->add_option("-o,--out", val.out, "Output folder (default: results/validation)");
+  cmd_val->add_option("--case", val.only, "Run only this case");
+  cmd_val->add_option("--cases-dir", val.cases_dir, "Folder of case folders (default: the built-in one)");
+  cmd_val->add_flag("-q,--quiet", val.quiet, "Print nothing");
+  cmd_val->add_flag("--plot,!--no-plot", val.plot, "One figure per case with gnuplot (default: on)");
+
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {
@@ -101,10 +289,12 @@ int main(int argc, char** argv) {
 
   try {
     if (*cmd_run) return run_command(run);
-  } catch (const flapline::InputError& e) {
+    if (*cmd_cmp) return compare_command(cmp);
+    if (*cmd_val) return validate_command(val);
+  } catch (const InputError& e) {
     std::cerr << "flapline: error: " << e.what() << "\n";
     return kExitInput;
-  } catch (const flapline::NumericalError& e) {
+  } catch (const NumericalError& e) {
     std::cerr << "flapline: run stopped: " << e.what() << "\n";
     return kExitNumerical;
   } catch (const std::exception& e) {

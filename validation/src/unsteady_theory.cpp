@@ -52,7 +52,7 @@ std::complex<double> pitch_lift(double k, double a, std::complex<double> c) {
 GarrickPlunge garrick_plunge(double rho, double b, double omega, double h0, double speed,
                              std::complex<double> c) {
   const double base = kPi * rho * b * omega * omega * h0 * h0;
-  return {base * std::norm(c), base * speed * c.real()};
+  return {base * std::norm(c), base * speed * c.real(), std::norm(c) / c.real()};
 }
 
 }  // namespace flapline::reference

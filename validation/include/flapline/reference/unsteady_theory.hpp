@@ -35,11 +35,12 @@ std::complex<double> plunge_lift(double k, std::complex<double> c);
 std::complex<double> pitch_lift(double k, double a, std::complex<double> c);
 
 /// Garrick (1936, NACA Report 567) for pure plunge h = h₀cos ωt at speed U: mean thrust
-/// T̄ = πρbω²h₀²(F² + G²), mean input power P̄ = πρbω²h₀²U·F per unit span.
+/// T̄ = πρbω²h₀²(F² + G²), mean input power P̄ = πρbω²h₀²U·F per unit span, propulsive
+/// efficiency η = T̄U/P̄ = (F² + G²)/F.
 struct GarrickPlunge {
-  double thrust;  ///< N/m
-  double power;   ///< W/m
-  double efficiency() const { return thrust / power; }
+  double thrust;      ///< N/m
+  double power;       ///< W/m
+  double efficiency;  ///< −
 };
 GarrickPlunge garrick_plunge(double rho, double b, double omega, double h0, double speed,
                              std::complex<double> c);
