@@ -44,8 +44,11 @@ class Progress {
       c.on_cycle = [this](int cycles, double change) {
         const double elapsed = std::chrono::duration<double>(std::chrono::steady_clock::now() - start_).count();
         if (elapsed < 1.0) return;
-        std::fprintf(stderr, "\r%s: cycle %d, change of the cycle means %.2e   ", label_.c_str(),
-                     cycles, std::isfinite(change) ? change : 0.0);
+        if (std::isfinite(change))
+          std::fprintf(stderr, "\r%s: cycle %d, change of the cycle means %.2e   ",
+                       label_.c_str(), cycles, change);
+        else
+          std::fprintf(stderr, "\r%s: cycle %d   ", label_.c_str(), cycles);
         shown_ = true;
       };
     return c;

@@ -1,6 +1,7 @@
 #include "flapline/aero/lag_states.hpp"
 
 #include "flapline/simulation/model.hpp"
+#include "flapline/simulation/stepper.hpp"
 #include "flapline/simulation/workspace.hpp"
 
 namespace flapline {

@@ -7,6 +7,7 @@
 
 #include "flapline/common/errors.hpp"
 #include "flapline/common/math.hpp"
+#include "flapline/simulation/stepper.hpp"
 
 namespace flapline {
 namespace {
@@ -128,9 +129,9 @@ void advance(const Model& model, Workspace& ws, double t, double dt) {
   auto system = [&](const Eigen::VectorXd& x, Eigen::VectorXd& dxdt, double time) {
     aero.derivative(model, ws, time, x, dxdt);
   };
-  ws.stepper.adjust_size(ws.state);  // sizes the stepper's buffers once; a no-op afterwards
+  ws.stepper->rk4.adjust_size(ws.state);  // sizes the stepper's buffers once; a no-op afterwards
   set_allocation_allowed(false);
-  ws.stepper.do_step(system, ws.state, t, dt);
+  ws.stepper->rk4.do_step(system, ws.state, t, dt);
   set_allocation_allowed(true);
   if (!ws.state.allFinite()) {
     Eigen::Index j = 0;

@@ -4,6 +4,7 @@
 #include <cmath>
 
 #include "flapline/simulation/model.hpp"
+#include "flapline/simulation/stepper.hpp"
 
 namespace flapline {
 
@@ -17,7 +18,9 @@ void StripLoads::resize(Eigen::Index n) {
   w_induced.setZero(n);
 }
 
-Workspace::Workspace(const Model& model) {
+Workspace::~Workspace() = default;
+
+Workspace::Workspace(const Model& model) : stepper(std::make_unique<StepperSlot>()) {
   const Eigen::Index n = model.strip_count();
   tangential.setZero(n);
   w_pivot.setZero(n);

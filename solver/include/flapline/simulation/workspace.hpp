@@ -5,8 +5,6 @@
 
 #include <Eigen/Core>
 #include <array>
-#include <boost/numeric/odeint.hpp>
-#include <boost/numeric/odeint/external/eigen/eigen.hpp>
 #include <memory>
 #include <vector>
 
@@ -29,13 +27,12 @@ struct StripLoads {
   void resize(Eigen::Index n);
 };
 
-using StateStepper = boost::numeric::odeint::runge_kutta4<
-    Eigen::VectorXd, double, Eigen::VectorXd, double,
-    boost::numeric::odeint::vector_space_algebra>;
+struct StepperSlot;  // simulation/stepper.hpp
 
 class Workspace {
  public:
   explicit Workspace(const Model& model);
+  ~Workspace();
   Workspace(const Workspace&) = delete;
   Workspace& operator=(const Workspace&) = delete;
 
@@ -61,7 +58,7 @@ class Workspace {
   std::vector<char> sample_filled;
   StripLoads loads;
   Eigen::VectorXd state;  ///< lag states
-  StateStepper stepper;
+  std::unique_ptr<StepperSlot> stepper;  ///< RK4 with its buffers (simulation/stepper.hpp)
   std::unique_ptr<AeroScratch> aero_scratch;
 };
 

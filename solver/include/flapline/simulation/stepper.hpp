@@ -1,0 +1,21 @@
+#pragma once
+/// \file
+/// The fixed-step integrator of the lag states: Boost.Odeint's classical RK4 on Eigen vectors.
+/// Kept out of workspace.hpp so that code which only reads results does not compile Odeint.
+
+#include <Eigen/Core>
+#include <boost/numeric/odeint.hpp>
+#include <boost/numeric/odeint/external/eigen/eigen.hpp>
+
+namespace flapline {
+
+using StateStepper = boost::numeric::odeint::runge_kutta4<
+    Eigen::VectorXd, double, Eigen::VectorXd, double,
+    boost::numeric::odeint::vector_space_algebra>;
+
+/// A Workspace's stepper (its buffers are sized on the first step and reused).
+struct StepperSlot {
+  StateStepper rk4;
+};
+
+}  // namespace flapline
