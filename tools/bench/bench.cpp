@@ -84,9 +84,21 @@ void lifting_line_factorise(benchmark::State& state) {
     benchmark::DoNotOptimize(lu.matrixLU().data());
   }
 }
+void lifting_line_uncached_derivative(benchmark::State& state) {
+  const Model& model = forward_lifting_line();
+  Workspace ws(model);  // no prepare_run: every stage assembles and factorises
+  model.aero().initial_state(model, ws, 0.0, StartMode::quasi_steady, ws.state);
+  Eigen::VectorXd dx(ws.state.size());
+  const double dt = model.period() / model.simulation().steps_per_cycle;
+  for (auto _ : state) {
+    model.aero().derivative(model, ws, dt, ws.state, dx);
+    benchmark::DoNotOptimize(dx.data());
+  }
+}
 void lifting_line_cached_derivative(benchmark::State& state) {
   const Model& model = forward_lifting_line();
   Workspace ws(model);
+  model.aero().prepare_run(model, ws);  // allocates the per-phase caches
   model.aero().initial_state(model, ws, 0.0, StartMode::quasi_steady, ws.state);
   Eigen::VectorXd dx(ws.state.size());
   const double dt = model.period() / model.simulation().steps_per_cycle;
@@ -103,6 +115,7 @@ BENCHMARK(lifting_line_hover)->Unit(benchmark::kMillisecond);
 BENCHMARK(lifting_line_forward)->Unit(benchmark::kMillisecond);
 BENCHMARK(lifting_line_assemble_k)->Unit(benchmark::kMicrosecond);
 BENCHMARK(lifting_line_factorise)->Unit(benchmark::kMicrosecond);
+BENCHMARK(lifting_line_uncached_derivative)->Unit(benchmark::kMicrosecond);
 BENCHMARK(lifting_line_cached_derivative)->Unit(benchmark::kMicrosecond);
 BENCHMARK(quasi_steady_hover)->Unit(benchmark::kMillisecond);
 BENCHMARK(quasi_steady_forward)->Unit(benchmark::kMillisecond);
