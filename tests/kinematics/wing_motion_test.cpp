@@ -1,5 +1,7 @@
 // Wing frames and section velocities against the conventions of DESIGN §2 and against
-// finite differences of positions (independent oracle).
+// finite differences of positions. Source of every check value: analytic (the sign
+// conventions of DESIGN §2, ISO 1151-1 body axes) or derived numerically from the geometry
+// itself (central differences, an independent oracle).
 #include <doctest/doctest.h>
 
 #include <cmath>

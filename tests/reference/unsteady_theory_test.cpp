@@ -1,5 +1,7 @@
 // The special-function layer of the validation references (REFERENCES §1-2): Theodorsen's C(k)
 // and the exact Wagner function from Boost.Math, against values computed independently there.
+// Source of the values: REFERENCES.md tables (computed with SciPy, mpmath and Boost.Math from
+// Theodorsen 1935, NACA Report 496, and Wagner 1925, ZAMM 5).
 #include <doctest/doctest.h>
 
 #include <cmath>

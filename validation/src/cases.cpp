@@ -1,4 +1,5 @@
-// The validation cases: flapline's values next to the classical references.
+// The validation cases: flapline's values next to the classical references. The source of every
+// reference is named in the case's case.yaml and printed in the report.
 #include <cmath>
 #include <complex>
 #include <functional>

@@ -1,3 +1,4 @@
+// Source: Glauert 1926 (monoplane equation), Prandtl 1918-19 (elliptic wing), Helmbold 1942.
 #include "flapline/reference/lifting_line_theory.hpp"
 
 #include <Eigen/Dense>

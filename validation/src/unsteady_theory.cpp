@@ -1,3 +1,5 @@
+// Source: Theodorsen 1935 (NACA Report 496), Wagner 1925 (ZAMM 5) through the branch-cut integral
+// of REFERENCES.md §1, Garrick 1936 (NACA Report 567); evaluated with Boost.Math.
 #include "flapline/reference/unsteady_theory.hpp"
 
 #include <boost/math/constants/constants.hpp>

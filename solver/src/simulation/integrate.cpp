@@ -315,9 +315,12 @@ RunSummary simulate(const Model& model, Workspace& ws, const RunControl& control
     const double t = (static_cast<double>(cycles_done - 1) + static_cast<double>(j) / samples) * period;
     update_sections(model, ws, t);
     acc.strip_samples += n2;
+    // Reverse flow: U_t below zero by more than round-off (at a stroke reversal U_t passes
+    // through zero, and ±1e-17 is no reverse flow).
+    const double noise = 1e-9 * ws.speed.maxCoeff();
     for (Eigen::Index k = 0; k < n2; ++k) {
       const SectionState& sec = ws.sections[static_cast<std::size_t>(k)];
-      if (sec.tangential_speed < 0.0) ++acc.reverse;
+      if (sec.tangential_speed < -noise) ++acc.reverse;
       // |atan2(w, U_t)| > 30°  <=>  |w| > tan 30° · max(U_t, 0)
       if (std::abs(sec.w_half) > tan_high * std::max(sec.tangential_speed, 0.0)) ++acc.high_alpha;
     }

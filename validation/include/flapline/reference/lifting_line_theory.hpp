@@ -1,7 +1,8 @@
 #pragma once
 /// \file
 /// Steady lifting-line theory (Prandtl 1918-19; Glauert 1926, *The Elements of Aerofoil and
-/// Airscrew Theory*): the reference side of the finite-wing validation cases.
+/// Airscrew Theory*): the reference side of the finite-wing validation cases. Source of each
+/// formula beside it.
 
 #include <functional>
 #include <vector>
