@@ -237,10 +237,11 @@ TEST_CASE("symmetric flapping: zero Y, L, N; both-wing coupling equals the mirro
     for (Eigen::Index j = 0; j < n; ++j) {
       // image of right strip j: A' = M·B, B' = M·A (the sense d = e_c × e_n flips with M)
       const Eigen::Vector3d a = mirror(g.end.col(j)), b = mirror(g.start.col(j));
-      const Eigen::Vector3d u = mirror(g.trailing.col(j)), x = g.control.col(i);
+      const Eigen::Vector3d ua = mirror(g.trailing_end.col(j)), ub = mirror(g.trailing_start.col(j));
+      const Eigen::Vector3d x = g.control.col(i);
       const double core = g.core(j);
       const Eigen::Vector3d v = segment_velocity_4pi(a, b, x, core) +
-                                leg_velocity_4pi(b, u, x, core) - leg_velocity_4pi(a, u, x, core);
+                                leg_velocity_4pi(b, ub, x, core) - leg_velocity_4pi(a, ua, x, core);
       const double image = g.normal.col(i).dot(v) / (4 * kPi);
       worst = std::max(worst, std::abs(image - K(i, n + j)));
     }

@@ -136,7 +136,8 @@ void horseshoe_geometry(const Model& model, const Workspace& ws, HorseshoeGeomet
   const Eigen::Index n = st.size();
   g.start.resize(3, 2 * n);
   g.end.resize(3, 2 * n);
-  g.trailing.resize(3, 2 * n);
+  g.trailing_start.resize(3, 2 * n);
+  g.trailing_end.resize(3, 2 * n);
   g.control.resize(3, 2 * n);
   g.normal.resize(3, 2 * n);
   g.core.resize(2 * n);
@@ -144,28 +145,35 @@ void horseshoe_geometry(const Model& model, const Workspace& ws, HorseshoeGeomet
     const WingPose& p = ws.poses[static_cast<std::size_t>(side)];
     const bool left = side == 1;
     auto to_body = [left](const Eigen::Vector3d& v) { return left ? mirror(v) : v; };
-    // ¼-chord point of a section at unscaled radius r (virtual frame).
-    auto quarter = [&p](double r, double chord, double le, double twist) {
-      const Eigen::Vector3d ec = std::cos(twist) * p.chord_axis + std::sin(twist) * p.normal_axis;
-      return Eigen::Vector3d(p.hinge + p.span_ratio * r * p.span_axis + (le - 0.25 * chord) * ec);
+    // Chord direction and ¼-chord point of a section at unscaled radius r (virtual frame).
+    auto chord_axis = [&p](double twist) {
+      return Eigen::Vector3d(std::cos(twist) * p.chord_axis + std::sin(twist) * p.normal_axis);
+    };
+    auto quarter = [&](double r, double chord, double le, double twist) {
+      return Eigen::Vector3d(p.hinge + p.span_ratio * r * p.span_axis +
+                             (le - 0.25 * chord) * chord_axis(twist));
     };
     Eigen::Vector3d inner = to_body(quarter(st.edge_radius(0), st.edge_chord(0),
                                             st.edge_leading_edge(0), st.edge_twist(0)));
+    Eigen::Vector3d inner_leg = -to_body(chord_axis(st.edge_twist(0)));
     for (Eigen::Index i = 0; i < n; ++i) {
       const Eigen::Index k = side * n + i;
       const Eigen::Vector3d outer =
           to_body(quarter(st.edge_radius(i + 1), st.edge_chord(i + 1), st.edge_leading_edge(i + 1),
                           st.edge_twist(i + 1)));
+      // Each leg leaves along −e_c at its own edge, so the legs that neighbouring strips shed at
+      // a common edge coincide and cancel exactly, twisted wing or not.
+      const Eigen::Vector3d outer_leg = -to_body(chord_axis(st.edge_twist(i + 1)));
       // The bound circulation runs along e_c × e_n: root to tip on the right wing, tip to root on
       // the left (DESIGN §4), so the pair's bound vortex is continuous across the body.
       g.start.col(k) = left ? outer : inner;
       g.end.col(k) = left ? inner : outer;
+      g.trailing_start.col(k) = left ? outer_leg : inner_leg;
+      g.trailing_end.col(k) = left ? inner_leg : outer_leg;
       inner = outer;
+      inner_leg = outer_leg;
       const double ct = st.cos_twist(i), sn = st.sin_twist(i);
-      const Eigen::Vector3d ec = ct * p.chord_axis + sn * p.normal_axis;
-      const Eigen::Vector3d en = ct * p.normal_axis - sn * p.chord_axis;
-      g.trailing.col(k) = -to_body(ec);
-      g.normal.col(k) = to_body(en);
+      g.normal.col(k) = to_body(Eigen::Vector3d(ct * p.normal_axis - sn * p.chord_axis));
       g.control.col(k) = to_body(quarter(st.radius(i), st.chord(i), st.leading_edge(i), st.twist(i)));
       g.core(k) = kCoreFraction * p.span_ratio * st.width(i);
     }
@@ -177,13 +185,14 @@ void influence_block(const HorseshoeGeometry& g, Eigen::Index row0, Eigen::Index
   constexpr double inv4pi = 1.0 / (4.0 * kPi);
   for (Eigen::Index jj = 0; jj < cols; ++jj) {
     const Eigen::Index j = col0 + jj;
-    const Eigen::Vector3d a = g.start.col(j), b = g.end.col(j), u = g.trailing.col(j);
+    const Eigen::Vector3d a = g.start.col(j), b = g.end.col(j);
+    const Eigen::Vector3d ua = g.trailing_start.col(j), ub = g.trailing_end.col(j);
     const double core = g.core(j);
     for (Eigen::Index ii = 0; ii < rows; ++ii) {
       const Eigen::Index i = row0 + ii;
       const Eigen::Vector3d x = g.control.col(i);
       // Legs: from far downstream into A (−leg), from B out to far downstream (+leg).
-      Eigen::Vector3d v = leg_velocity_4pi(b, u, x, core) - leg_velocity_4pi(a, u, x, core);
+      Eigen::Vector3d v = leg_velocity_4pi(b, ub, x, core) - leg_velocity_4pi(a, ua, x, core);
       if (i != j) v += segment_velocity_4pi(a, b, x, core);  // own bound vortex: the 2D model's
       out(ii, jj) = inv4pi * g.normal.col(i).dot(v);
     }
