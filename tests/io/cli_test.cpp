@@ -35,17 +35,20 @@ TEST_CASE("flapline run writes history.csv, summary.json and spanwise.csv for ev
   }
 }
 
-TEST_CASE("every demo also runs with the wagner model; the fixed-wing demo runs as written") {
-  for (const char* demo : {"hover_insect", "forward_bat", "rolling_bat", "pitching_wing"}) {
-    CAPTURE(demo);
-    const fs::path out = test::fresh_folder(std::string("cli_wagner_") + demo);
-    std::string log;
-    CHECK(test::run_cli("run \"" + test::source_path(std::string("configs/") + demo + ".yaml") +
-                            "\" --set model.kind=wagner -q -o \"" + out.string() + "\"",
-                        log) == 0);
-    CHECK(fs::exists(out / "summary.json"));
-    fs::remove_all(out);
-  }
+TEST_CASE("every demo also runs with the wagner and lifting_line models") {
+  for (const char* model : {"wagner", "lifting_line"})
+    for (const char* demo : {"hover_insect", "forward_bat", "rolling_bat", "pitching_wing"}) {
+      CAPTURE(model);
+      CAPTURE(demo);
+      const fs::path out = test::fresh_folder(std::string("cli_model_") + demo);
+      std::string log;
+      CHECK(test::run_cli("run \"" + test::source_path(std::string("configs/") + demo + ".yaml") +
+                              "\" --set model.kind=" + model + " --no-plot -q -o \"" +
+                              out.string() + "\"",
+                          log) == 0);
+      CHECK(fs::exists(out / "summary.json"));
+      fs::remove_all(out);
+    }
 }
 
 TEST_CASE("--state-space T writes the frozen-time matrices of a lag model") {
