@@ -259,7 +259,7 @@ TEST_CASE("frozen-time state space reproduces the model's derivative and circula
   CHECK(ss.A.rows() == 2 * n2);
   CHECK(ss.B.cols() == n2);
   Eigen::VectorXd x = Eigen::VectorXd::Zero(2 * n2);
-  for (Eigen::Index k = 0; k < x.size(); ++k) x(k) = 0.3 * std::sin(1.7 * k + 0.2);  // a state
+  for (Eigen::Index k = 0; k < x.size(); ++k) x(k) = 0.3 * std::sin(1.7 * static_cast<double>(k) + 0.2);  // a state
   Eigen::VectorXd dx(2 * n2);
   model.aero().derivative(model, ws, t, x, dx);
   update_speeds(model, ws, t);

@@ -35,19 +35,6 @@ LiftingLineScratch& scratch_of(Workspace& ws) {
   return static_cast<LiftingLineScratch&>(*ws.aero_scratch);
 }
 
-Eigen::Index stage_slot(const Model& model, double t, Eigen::Index slots) {
-  if (slots == 0) return -1;
-  const double u = t * model.frequency() * static_cast<double>(slots);
-  const double nearest = std::round(u);
-  if (std::abs(u - nearest) >= 1e-6) return -1;
-  Eigen::Index j = static_cast<Eigen::Index>(nearest) % slots;
-  return j < 0 ? j + slots : j;
-}
-
-void set_poses(const Model& model, Workspace& ws, double t) {
-  for (int s = 0; s < 2; ++s)
-    ws.poses[static_cast<std::size_t>(s)] = wing_pose(model.motion(static_cast<Side>(s)), t);
-}
 
 /// K at the poses in ws.poses, for the model's span coupling.
 void assemble(const Model& model, Workspace& ws, LiftingLineScratch& s) {
@@ -94,9 +81,9 @@ void solve_stage(const Model& model, Workspace& ws, double t, const Eigen::Vecto
   const Eigen::Index slot =
       s.static_geometry && !s.filled.empty()
           ? 0
-          : stage_slot(model, t, static_cast<Eigen::Index>(s.filled.size()));
+          : cycle_slot(t, model.frequency(), static_cast<Eigen::Index>(s.filled.size()));
   if (slot < 0 || !s.filled[static_cast<std::size_t>(slot)]) {
-    if (!poses_current) set_poses(model, ws, t);
+    if (!poses_current) update_speeds(model, ws, t);  // poses at t (stage arrays are not read)
     assemble(model, ws, s);
     s.S = s.identity;
     s.S.noalias() -= s.d0.matrix().asDiagonal() * s.K;
@@ -223,8 +210,8 @@ std::unique_ptr<AeroScratch> LiftingLineModel::make_scratch(const Model& model) 
   bool moving = false;
   for (int side = 0; side < 2; ++side) {
     const WingMotion& m = model.motion(static_cast<Side>(side));
-    for (const Waveform* w : {&m.stroke, &m.deviation, &m.pitch, &m.span_ratio})
-      if (w->maximum() != w->minimum()) moving = true;
+    for (const Waveform* wave : {&m.stroke, &m.deviation, &m.pitch, &m.span_ratio})
+      if (wave->maximum() != wave->minimum()) moving = true;
   }
   s->static_geometry = !moving && model.aero_options().span_coupling != SpanCoupling::none;
   if (s->static_geometry) {  // one slot, cheap: allocate now
@@ -300,7 +287,7 @@ double LiftingLineModel::stiffest_rate(const Model& model, Workspace& ws, double
 Eigen::MatrixXd influence_matrix(const Model& model, Workspace& ws, double t) {
   const Eigen::Index n2 = model.strip_count();
   if (model.aero_options().kind != ModelKind::lifting_line) return Eigen::MatrixXd::Zero(n2, n2);
-  set_poses(model, ws, t);
+  update_speeds(model, ws, t);
   LiftingLineScratch& s = scratch_of(ws);
   assemble(model, ws, s);
   return s.K;

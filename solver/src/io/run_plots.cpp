@@ -38,6 +38,13 @@ Series history_series(const std::vector<std::pair<double, const HistoryRow*>>& r
   return s;
 }
 
+Series named(std::string title, std::string style) {
+  Series s;
+  s.title = std::move(title);
+  s.style = std::move(style);
+  return s;
+}
+
 void merge(std::map<std::string, std::string>& into, std::map<std::string, std::string> more) {
   into.insert(more.begin(), more.end());
 }
@@ -121,7 +128,7 @@ std::map<std::string, std::string> run_plots(const RunSummary& s, const Model& m
             "distance from the hinge along the span (m)", "chordwise position (m, + forward)", "",
             "the left wing is its mirror image; pitch axis at 0", {}};
   plan.equal_axes = true;
-  Series le{"leading edge", {}, {}, "lines"}, te{"trailing edge", {}, {}, "lines"};
+  Series le = named("leading edge", "lines"), te = named("trailing edge", "lines");
   const int fine = 200;
   for (int i = 0; i <= fine; ++i) {
     const double r = pf.span() * i / fine;
@@ -131,17 +138,19 @@ std::map<std::string, std::string> run_plots(const RunSummary& s, const Model& m
     te.y.push_back(pf.leading_edge(r) - pf.chord(r));
   }
   le.line_type = te.line_type = 1;
-  Series edges{"strip edges", {}, {}, "vectors"};
+  Series edges = named("strip edges", "vectors");
   for (Eigen::Index j = 0; j < st.edge_radius.size(); ++j) {
     edges.x.push_back(st.edge_radius(j));
     edges.y.push_back(st.edge_leading_edge(j) - st.edge_chord(j));
     edges.dx.push_back(0.0);
     edges.dy.push_back(st.edge_chord(j));
   }
-  Series axis{"pitch axis", {0.0, pf.span()}, {0.0, 0.0}, "lines"};
+  Series axis = named("pitch axis", "lines");
+  axis.x = {0.0, pf.span()};
+  axis.y = {0.0, 0.0};
   axis.line_type = 3;
   axis.dashed = true;
-  Series centres{"strip centres", {}, {}, "points"};
+  Series centres = named("strip centres", "points");
   for (Eigen::Index i = 0; i < st.size(); ++i) {
     centres.x.push_back(st.radius(i));
     centres.y.push_back(st.leading_edge(i) - 0.25 * st.chord(i));
@@ -159,9 +168,9 @@ std::map<std::string, std::string> run_plots(const RunSummary& s, const Model& m
               "along the stroke path (m, + forward stroke)", "out of the stroke plane (m, + up)", "",
               "chord drawn every 1/24 cycle, dot = leading edge; stroke-plane coordinates", {}};
   stroke.equal_axes = true;
-  Series forward{"chord, forward stroke", {}, {}, "vectors"},
-      backward{"chord, backward stroke", {}, {}, "vectors"},
-      edges_le{"leading edge", {}, {}, "points"}, path{"pitch-axis path", {}, {}, "lines"};
+  Series forward = named("chord, forward stroke", "vectors");
+  Series backward = named("chord, backward stroke", "vectors");
+  Series edges_le = named("leading edge", "points"), path = named("pitch-axis path", "lines");
   const WingMotion& m = model.motion(Side::right);
   for (int j = 0; j <= 240; ++j) {
     const double t = (s.cycles - 1 + j / 240.0) / s.frequency;

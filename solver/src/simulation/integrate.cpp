@@ -21,9 +21,7 @@ struct CycleAccumulator {
   double air_sum = 0, air_peak = -std::numeric_limits<double>::infinity(), air_pos = 0;
   double act_sum = 0, act_peak = -std::numeric_limits<double>::infinity(), act_pos = 0;
   double force_sq = 0, induced = 0;
-  long samples = 0, strip_samples = 0, reverse = 0, high_alpha = 0;
-  double speed_sq = 0;
-  long speed_count = 0;
+  long samples = 0;
 
   void add(const LoadSample& s) {
     sum += s.total;
@@ -311,28 +309,29 @@ RunSummary simulate(const Model& model, Workspace& ws, const RunControl& control
   fig.stroke_amplitude = stroke.maximum() - stroke.minimum();
   fig.airspeed = (model.spec().flight.velocity - model.spec().flight.wind).norm();
   // Kinematic figures over the output samples of one cycle (the same every cycle).
+  long strip_samples = 0, reverse = 0, high_alpha = 0;
+  double speed_sq = 0.0;
   for (int j = 0; j < samples; ++j) {
     const double t = (static_cast<double>(cycles_done - 1) + static_cast<double>(j) / samples) * period;
     update_sections(model, ws, t);
-    acc.strip_samples += n2;
+    strip_samples += n2;
     // Reverse flow: U_t below zero by more than round-off (at a stroke reversal U_t passes
     // through zero, and ±1e-17 is no reverse flow).
     const double noise = 1e-9 * ws.speed.maxCoeff();
     for (Eigen::Index k = 0; k < n2; ++k) {
       const SectionState& sec = ws.sections[static_cast<std::size_t>(k)];
-      if (sec.tangential_speed < -noise) ++acc.reverse;
+      if (sec.tangential_speed < -noise) ++reverse;
       // |atan2(w, U_t)| > 30°  <=>  |w| > tan 30° · max(U_t, 0)
-      if (std::abs(sec.w_half) > tan_high * std::max(sec.tangential_speed, 0.0)) ++acc.high_alpha;
+      if (std::abs(sec.w_half) > tan_high * std::max(sec.tangential_speed, 0.0)) ++high_alpha;
     }
     for (int s = 0; s < 2; ++s) {
       const SectionState ref =
           section_state(ws.poses[static_cast<std::size_t>(s)], model.motion(static_cast<Side>(s)),
                         r_ref, c_ref, le_ref, std::cos(tw_ref), std::sin(tw_ref));
-      acc.speed_sq += ref.speed * ref.speed;
-      ++acc.speed_count;
+      speed_sq += ref.speed * ref.speed;
     }
   }
-  fig.reference_speed = std::sqrt(acc.speed_sq / static_cast<double>(acc.speed_count));
+  fig.reference_speed = std::sqrt(speed_sq / (2.0 * samples));  // both wings
   const double rho = model.air().density;
   const double lift = out.mean_lift();
   if (fig.reference_speed > 0.0) {
@@ -347,9 +346,9 @@ RunSummary simulate(const Model& model, Workspace& ws, const RunControl& control
   if (std::abs(out.averages.power_air_mean) > 1e-15)
     fig.lift_to_power = lift / out.averages.power_air_mean;
   fig.reverse_flow_fraction =
-      static_cast<double>(acc.reverse) / static_cast<double>(acc.strip_samples);
+      static_cast<double>(reverse) / static_cast<double>(strip_samples);
   fig.high_alpha_fraction =
-      static_cast<double>(acc.high_alpha) / static_cast<double>(acc.strip_samples);
+      static_cast<double>(high_alpha) / static_cast<double>(strip_samples);
 
   out.spanwise = std::move(phase_rows);
   const double inv_samples = 1.0 / samples;

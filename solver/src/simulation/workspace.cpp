@@ -50,9 +50,7 @@ Workspace::Workspace(const Model& model) : stepper(std::make_unique<StepperSlot>
   }
 }
 
-namespace {
-/// Index of the cache slot of time t on a grid of `slots` per cycle, or −1 when t is off the grid.
-Eigen::Index slot_of(double t, double frequency, Eigen::Index slots) {
+Eigen::Index cycle_slot(double t, double frequency, Eigen::Index slots) {
   if (slots == 0) return -1;
   const double u = t * frequency * static_cast<double>(slots);
   const double nearest = std::round(u);
@@ -60,11 +58,10 @@ Eigen::Index slot_of(double t, double frequency, Eigen::Index slots) {
   Eigen::Index j = static_cast<Eigen::Index>(nearest) % slots;
   return j < 0 ? j + slots : j;
 }
-}  // namespace
 
 StageSpeeds stage_speeds(const Model& model, Workspace& ws, double t) {
   const Eigen::Index j =
-      slot_of(t, model.frequency(), static_cast<Eigen::Index>(ws.stage_filled.size()));
+      cycle_slot(t, model.frequency(), static_cast<Eigen::Index>(ws.stage_filled.size()));
   if (j >= 0) {
     if (!ws.stage_filled[static_cast<std::size_t>(j)]) {
       update_speeds(model, ws, t);
@@ -96,7 +93,7 @@ void update_speeds(const Model& model, Workspace& ws, double t) {
 
 void update_sections(const Model& model, Workspace& ws, double t) {
   const Eigen::Index j =
-      slot_of(t, model.frequency(), static_cast<Eigen::Index>(ws.sample_filled.size()));
+      cycle_slot(t, model.frequency(), static_cast<Eigen::Index>(ws.sample_filled.size()));
   const Eigen::Index n2 = model.strip_count();
   const auto arrays = [&] {
     return std::array<Eigen::ArrayXd*, 6>{&ws.tangential, &ws.w_pivot, &ws.w_three_quarter,

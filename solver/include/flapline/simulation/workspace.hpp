@@ -62,6 +62,10 @@ class Workspace {
   std::unique_ptr<AeroScratch> aero_scratch;
 };
 
+/// Index of the per-phase cache slot of time t on a grid of `slots` per cycle (frequency in Hz),
+/// or −1 when there is no cache (slots = 0) or t is off the grid. Shared by every phase cache.
+Eigen::Index cycle_slot(double t, double frequency, Eigen::Index slots);
+
 /// U/b (1/s) and w_¾ (m/s) of every strip at a stage time.
 struct StageSpeeds {
   Eigen::Ref<const Eigen::ArrayXd> rate;
