@@ -58,7 +58,7 @@ struct Steady {
 Steady steady(const ModelSpec& spec) {
   const Model model(spec);
   Workspace ws(model);
-  model.aero().initial_state(model, ws, 0.0, StartMode::quasi_steady, ws.state);
+  attach_aero(model, ws).initial_state(model, ws, 0.0, StartMode::quasi_steady, ws.state);
   const LoadSample l = evaluate(model, ws, 0.0);
   const double q = 0.5 * model.air().density * kSpeed * kSpeed * 2.0 * model.planform().area();
   const double cl = -l.total.force.z() / q;
@@ -98,7 +98,7 @@ TEST_CASE("the reported induced drag is the drag of a steady wing") {
   const ModelSpec spec = straight_wing(PlanformShape::rectangular, 6.0, 20, StripSpacing::cosine);
   const Model model(spec);
   Workspace ws(model);
-  model.aero().initial_state(model, ws, 0.0, StartMode::quasi_steady, ws.state);
+  attach_aero(model, ws).initial_state(model, ws, 0.0, StartMode::quasi_steady, ws.state);
   const LoadSample l = evaluate(model, ws, 0.0);
   CHECK(l.induced_drag == doctest::Approx(-l.total.force.x()).epsilon(1e-4));
   CHECK(l.induced_drag > 0.0);
@@ -196,7 +196,7 @@ TEST_CASE("impulsive start of an elliptic wing: from πα/(1 + 1/AR) to Prandtl'
   s.simulation.start = StartMode::rest;
   const Model model(s);
   Workspace ws(model);
-  model.aero().initial_state(model, ws, 0.0, StartMode::rest, ws.state);
+  attach_aero(model, ws).initial_state(model, ws, 0.0, StartMode::rest, ws.state);
   const double q = 0.5 * model.air().density * kSpeed * kSpeed * 2.0 * model.planform().area();
   const double semichord = 0.5 * model.planform().mean_chord();
   const double dt = 0.05 * semichord / kSpeed;
@@ -261,7 +261,7 @@ TEST_CASE("frozen-time state space reproduces the model's derivative and circula
   Eigen::VectorXd x = Eigen::VectorXd::Zero(2 * n2);
   for (Eigen::Index k = 0; k < x.size(); ++k) x(k) = 0.3 * std::sin(1.7 * static_cast<double>(k) + 0.2);  // a state
   Eigen::VectorXd dx(2 * n2);
-  model.aero().derivative(model, ws, t, x, dx);
+  attach_aero(model, ws).derivative(model, ws, t, x, dx);
   update_speeds(model, ws, t);
   const Eigen::VectorXd w = ws.w_three_quarter.matrix();
   CHECK((ss.A * x + ss.B * w - dx).norm() <= 1e-10 * dx.norm());
@@ -279,6 +279,6 @@ TEST_CASE("every demo runs with the lifting line and converges") {
     const RunSummary r = simulate(Model(s));
     CHECK(r.status == RunStatus::converged);
     CHECK(r.mean_lift() > 0.0);
-    CHECK(r.figures.reverse_flow_fraction <= 0.05);
+    CHECK(r.derived.reverse_flow_fraction <= 0.05);
   }
 }

@@ -83,7 +83,7 @@ TEST_CASE("added-mass power of a rigid wing in still air averages to zero over a
   for (int j = 0; j < samples; ++j) {
     const double t = j * model.period() / samples;
     update_sections(model, ws, t);
-    model.aero().loads(model, ws, t, ws.state);
+    attach_aero(model, ws).loads(model, ws, t, ws.state);
     double p = 0.0;
     for (Eigen::Index k = 0; k < model.strip_count(); ++k) {
       const auto& sec = ws.sections[static_cast<std::size_t>(k)];

@@ -77,7 +77,7 @@ TEST_CASE("step in angle at constant speed follows the Wagner fit and the exact 
     s.gait.right.pitch.mean = s.gait.left.pitch.mean = alpha;
     const Model model(s);
     Workspace ws(model);
-    model.aero().initial_state(model, ws, 0.0, StartMode::rest, ws.state);
+    attach_aero(model, ws).initial_state(model, ws, 0.0, StartMode::rest, ws.state);
     const WagnerCoefficients c = wagner_coefficients(fit);
     const double steady = kPi * kChord * kSpeed * std::sin(alpha);  // Γ(∞) = πc·w_¾
     const double dt = 0.05 * kSemichord / kSpeed;                   // Δs = 0.05
@@ -161,7 +161,7 @@ TEST_CASE("stroke reversal passes without spikes in the lag states (hover)") {
   s.aero.kind = ModelKind::wagner;
   const Model model(s);
   Workspace ws(model);
-  model.aero().initial_state(model, ws, 0.0, StartMode::quasi_steady, ws.state);
+  attach_aero(model, ws).initial_state(model, ws, 0.0, StartMode::quasi_steady, ws.state);
   const int steps = s.simulation.steps_per_cycle;
   const double dt = model.period() / steps;
   const Eigen::Index n2 = model.strip_count(), k = 14;  // an outboard strip of the right wing
@@ -233,7 +233,7 @@ TEST_CASE("every demo runs with the wagner model, leads with its leading edge an
     s.aero.kind = ModelKind::wagner;
     const RunSummary r = simulate(Model(s));
     CHECK(r.status == RunStatus::converged);
-    CHECK(r.figures.reverse_flow_fraction <= 0.05);
+    CHECK(r.derived.reverse_flow_fraction <= 0.05);
     CHECK(r.mean_lift() > 0.0);
     // The periodic start puts the lag states on their periodic orbit: the run stops after the
     // minimum two cycles with the cycle means of the long run from rest (to the tolerance).
@@ -256,7 +256,7 @@ TEST_CASE("reverse_flow no_suction drops the suction only where U_t < 0") {
   ModelSpec none = base;
   none.aero.suction_recovery = 0.0;
   const RunSummary rb = simulate(Model(base)), ra = simulate(Model(alt)), rn = simulate(Model(none));
-  CHECK(rb.figures.reverse_flow_fraction == doctest::Approx(0.5));
+  CHECK(rb.derived.reverse_flow_fraction == doctest::Approx(0.5));
   const double f = rb.averages.force_rms;
   CHECK((ra.averages.wing_mean[0].force - rb.averages.wing_mean[0].force).norm() <= 1e-12 * f);
   CHECK((ra.averages.wing_mean[1].force - rn.averages.wing_mean[1].force).norm() <= 1e-12 * f);
@@ -277,7 +277,7 @@ TEST_CASE("too few steps for the fast lag state is refused before the run; a blo
   // Stepping past the limit by hand blows up: the error names time, strip and quantity.
   const Model model(s);
   Workspace ws(model);
-  model.aero().initial_state(model, ws, 0.0, StartMode::rest, ws.state);
+  attach_aero(model, ws).initial_state(model, ws, 0.0, StartMode::rest, ws.state);
   auto run = [&] {
     for (int j = 0; j < 1000; ++j) advance(model, ws, j * 0.05, 0.05);
   };

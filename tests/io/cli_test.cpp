@@ -6,6 +6,7 @@
 #include <nlohmann/json.hpp>
 #include <string>
 
+#include "flapline/version.hpp"
 #include "test_support.hpp"
 
 using namespace flapline;
@@ -27,7 +28,9 @@ TEST_CASE("flapline run writes history.csv, summary.json and spanwise.csv for ev
     const nlohmann::json j = nlohmann::json::parse(js);
     CHECK(j["cycle_mean"]["lift_N"].get<double>() > 0.0);
     CHECK(j.contains("cautions"));
-    CHECK(j["figures"].contains("reverse_flow_fraction"));
+    CHECK(j["derived"].contains("reverse_flow_fraction"));
+    CHECK(j["derived"].contains("stroke_peak_to_peak_deg"));
+    CHECK(j["version"] == kVersion);
     // No temporary file survives.
     for (const auto& e : fs::directory_iterator(out))
       CHECK(e.path().filename().string().find(".tmp-") == std::string::npos);

@@ -1,8 +1,12 @@
 // The run loop: symmetry identities, averaging, convergence (DESIGN §2, §5).
 #include <doctest/doctest.h>
 
+#include <thread>
+#include <vector>
+
 #include <cmath>
 
+#include "flapline/common/errors.hpp"
 #include "flapline/common/math.hpp"
 #include "flapline/samples/samples.hpp"
 #include "flapline/simulation/integrate.hpp"
@@ -55,7 +59,7 @@ TEST_CASE("every demo sample leads with its leading edge and converges") {
        {samples::hover_insect(), samples::forward_bat(), samples::rolling_bat()}) {
     CAPTURE(s.title);
     const RunSummary r = simulate(Model(s));
-    CHECK(r.figures.reverse_flow_fraction <= 0.05);
+    CHECK(r.derived.reverse_flow_fraction <= 0.05);
     CHECK(r.status == RunStatus::converged);
     CHECK(r.mean_lift() > 0.0);
   }
@@ -85,7 +89,7 @@ TEST_CASE("reference figures follow their definitions") {
   // DESIGN §5: C̄_L = L̄/(½ρU_ref²S_pair), k = πf c̄/U_ref, J = V/(2ΦfR), Re = U_ref c̄/ν.
   const ModelSpec s = samples::forward_bat();
   const RunSummary r = simulate(Model(s));
-  const Figures& f = r.figures;
+  const DerivedQuantities& f = r.derived;
   REQUIRE(f.mean_lift_coefficient);
   CHECK(*f.mean_lift_coefficient ==
         doctest::Approx(r.mean_lift() / (0.5 * r.air_density * std::pow(f.reference_speed, 2) * 2 * f.area)));
@@ -93,7 +97,7 @@ TEST_CASE("reference figures follow their definitions") {
   CHECK(*f.advance_ratio == doctest::Approx(6.0 / (2 * 60 * kDegree * 6.0 * 0.25)).epsilon(1e-4));
   CHECK(*f.reynolds_number == doctest::Approx(f.reference_speed * f.mean_chord / r.kinematic_viscosity));
   // Hover: no advance ratio of note (V = 0).
-  CHECK(*simulate(Model(samples::hover_insect())).figures.advance_ratio == 0.0);
+  CHECK(*simulate(Model(samples::hover_insect())).derived.advance_ratio == 0.0);
 }
 
 TEST_CASE("spanwise rows: every strip at every requested phase plus the cycle mean") {
@@ -121,16 +125,68 @@ TEST_CASE("spanwise rows: every strip at every requested phase plus the cycle me
 }
 
 TEST_CASE("the per-step loop allocates nothing (checked in the FLAPLINE_CHECK_NO_MALLOC build)") {
-  // With the option on, Eigen aborts on any allocation inside the RK4 steps of these runs.
-  for (const ModelSpec& s : {samples::hover_insect(), samples::forward_bat()}) {
-    ModelSpec one = s;
-    one.simulation.min_cycles = one.simulation.max_cycles = 1;
-    const Model model(one);
-    Workspace ws(model);
-    const RunSummary r = simulate(model, ws);
-    CHECK(r.cycles == 1);
+  // With the option on, any Eigen allocation inside the RK4 steps of these runs aborts. Two
+  // cycles: the first fills the per-phase caches, the second reads them.
+  for (ModelKind kind : {ModelKind::quasi_steady, ModelKind::wagner, ModelKind::lifting_line}) {
+    for (const ModelSpec& s : {samples::hover_insect(), samples::forward_bat()}) {
+      ModelSpec one = s;
+      one.aero.kind = kind;
+      one.strips.count = 8;
+      one.simulation.min_cycles = one.simulation.max_cycles = 2;
+      const Model model(one);
+      Workspace ws(model);
+      const RunSummary r = simulate(model, ws);
+      CHECK(r.cycles == 2);
+    }
   }
 #ifdef FLAPLINE_CHECK_NO_MALLOC
   MESSAGE("allocation check active");
 #endif
+}
+
+TEST_CASE("the allocation check is per thread: concurrent runs give the serial results") {
+  // Each thread owns its Workspace; the check of one thread's steps never trips on another
+  // thread's allocations (building a Model, growing a history).
+  ModelSpec s = samples::forward_bat();
+  s.aero.kind = ModelKind::lifting_line;
+  s.strips.count = 6;
+  s.simulation.max_cycles = 3;
+  const Model model(s);
+  const RunSummary serial = simulate(model);
+  std::vector<RunSummary> results(4);
+  std::vector<std::thread> threads;
+  for (std::size_t i = 0; i < results.size(); ++i)
+    threads.emplace_back([&, i] {
+      const Model own(s);  // allocates while the other threads step
+      results[i] = simulate(i % 2 ? own : model);
+    });
+  for (auto& t : threads) t.join();
+  for (const RunSummary& r : results) {
+    CHECK(r.averages.mean.force == serial.averages.mean.force);
+    CHECK(r.averages.mean.moment == serial.averages.mean.moment);
+  }
+}
+
+TEST_CASE("run_case turns a failed run into a status") {
+  // Too few RK4 steps for the lag states: a rule that needs the whole case (DESIGN §5). Cosine
+  // strips put a very narrow strip at the tip of the beta planform, whose chord tends to zero.
+  ModelSpec s = samples::hover_insect();
+  s.aero.kind = ModelKind::wagner;
+  s.strips.count = 40;
+  s.strips.spacing = StripSpacing::cosine;
+  const Model model(s);
+  Workspace ws(model);
+  CHECK_THROWS_AS(simulate(model, ws), InputError);
+  ws.reset(model);
+  const RunSummary r = run_case(model, ws);
+  CHECK(r.status == RunStatus::input_error);
+  CHECK(r.error_key == "simulation.steps_per_cycle");
+  CHECK(r.message.find("steps_per_cycle") != std::string::npos);
+  CHECK_FALSE(has_results(r.status));
+  // The same Workspace then serves a good case.
+  const Model good(samples::forward_bat());
+  ws.reset(good);
+  const RunSummary g = run_case(good, ws);
+  CHECK(g.status == RunStatus::converged);
+  CHECK(has_results(g.status));
 }

@@ -5,6 +5,9 @@
 #include <filesystem>
 #include <string>
 #include <sys/wait.h>
+#include <unistd.h>
+
+#include <atomic>
 
 namespace flapline::test {
 
@@ -20,8 +23,10 @@ inline std::string source_path(const std::string& relative) {
 /// Run the CLI with `args` (shell words), capturing stdout+stderr into `output`; returns the exit
 /// status.
 inline int run_cli(const std::string& args, std::string& output) {
+  static std::atomic<int> counter{0};
   const std::filesystem::path log =
-      std::filesystem::temp_directory_path() / ("flapline_cli_" + std::to_string(::rand()) + ".log");
+      std::filesystem::temp_directory_path() /
+      ("flapline_cli_" + std::to_string(::getpid()) + "_" + std::to_string(counter++) + ".log");
   const std::string cmd = std::string("\"") + FLAPLINE_CLI + "\" " + args + " > \"" + log.string() +
                           "\" 2>&1";
   const int raw = std::system(cmd.c_str());
@@ -36,9 +41,11 @@ inline int run_cli(const std::string& args, std::string& output) {
   return WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
 }
 
-/// A fresh empty folder under the system temp folder.
+/// A fresh empty folder under the system temp folder, unique to this test process (so `ctest -j`
+/// never collides).
 inline std::filesystem::path fresh_folder(const std::string& name) {
-  const auto p = std::filesystem::temp_directory_path() / ("flapline_test_" + name);
+  const auto p = std::filesystem::temp_directory_path() /
+                 ("flapline_test_" + std::to_string(::getpid()) + "_" + name);
   std::filesystem::remove_all(p);
   return p;
 }

@@ -87,24 +87,24 @@ void lifting_line_factorise(benchmark::State& state) {
 void lifting_line_uncached_derivative(benchmark::State& state) {
   const Model& model = forward_lifting_line();
   Workspace ws(model);  // no prepare_run: every stage assembles and factorises
-  model.aero().initial_state(model, ws, 0.0, StartMode::quasi_steady, ws.state);
+  attach_aero(model, ws).initial_state(model, ws, 0.0, StartMode::quasi_steady, ws.state);
   Eigen::VectorXd dx(ws.state.size());
   const double dt = model.period() / model.simulation().steps_per_cycle;
   for (auto _ : state) {
-    model.aero().derivative(model, ws, dt, ws.state, dx);
+    attach_aero(model, ws).derivative(model, ws, dt, ws.state, dx);
     benchmark::DoNotOptimize(dx.data());
   }
 }
 void lifting_line_cached_derivative(benchmark::State& state) {
   const Model& model = forward_lifting_line();
   Workspace ws(model);
-  model.aero().prepare_run(model, ws);  // allocates the per-phase caches
-  model.aero().initial_state(model, ws, 0.0, StartMode::quasi_steady, ws.state);
+  attach_aero(model, ws).prepare_run(model, ws);  // allocates the per-phase caches
+  attach_aero(model, ws).initial_state(model, ws, 0.0, StartMode::quasi_steady, ws.state);
   Eigen::VectorXd dx(ws.state.size());
   const double dt = model.period() / model.simulation().steps_per_cycle;
-  model.aero().derivative(model, ws, dt, ws.state, dx);  // fills the phase
+  attach_aero(model, ws).derivative(model, ws, dt, ws.state, dx);  // fills the phase
   for (auto _ : state) {
-    model.aero().derivative(model, ws, dt, ws.state, dx);
+    attach_aero(model, ws).derivative(model, ws, dt, ws.state, dx);
     benchmark::DoNotOptimize(dx.data());
   }
 }

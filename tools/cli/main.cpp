@@ -22,6 +22,7 @@
 #include "flapline/io/writers.hpp"
 #include "flapline/simulation/integrate.hpp"
 #include "flapline/validation/validation.hpp"
+#include "flapline/version.hpp"
 
 namespace {
 
@@ -231,7 +232,7 @@ int validate_command(const ValidateArgs& a) {
 
 int main(int argc, char** argv) {
   CLI::App app{"flapline: unsteady blade-element aerodynamics of flapping and morphing wings"};
-  app.set_version_flag("--version", std::string("flapline ") + FLAPLINE_VERSION);
+  app.set_version_flag("--version", std::string("flapline ") + kVersion);
   app.require_subcommand(1);
 
   RunArgs run;

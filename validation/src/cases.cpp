@@ -142,7 +142,7 @@ void revolving_wing(Context& c) {
 void wagner_step(Context& c) {
   const Model model = c.model();
   Workspace ws(model);
-  model.aero().initial_state(model, ws, 0.0, StartMode::rest, ws.state);
+  attach_aero(model, ws).initial_state(model, ws, 0.0, StartMode::rest, ws.state);
   const double speed = model.spec().flight.velocity.x();
   const double b = 0.5 * model.planform().mean_chord();
   const double alpha = model.motion(Side::right).pitch.at(0.0, model.frequency()).value;
@@ -323,7 +323,7 @@ struct SteadyWing {
 SteadyWing steady_wing(const Context& c, const Overrides& o) {
   const Model model = c.model(o);
   Workspace ws(model);
-  model.aero().initial_state(model, ws, 0.0, StartMode::quasi_steady, ws.state);
+  attach_aero(model, ws).initial_state(model, ws, 0.0, StartMode::quasi_steady, ws.state);
   const LoadSample l = evaluate(model, ws, 0.0);
   const double speed = model.spec().flight.velocity.x();
   const double alpha = model.motion(Side::right).pitch.at(0.0, model.frequency()).value;
@@ -384,7 +384,7 @@ void rectangular_wing(Context& c) {
 void impulsive_start(Context& c) {
   const Model model = c.model();
   Workspace ws(model);
-  model.aero().initial_state(model, ws, 0.0, StartMode::rest, ws.state);
+  attach_aero(model, ws).initial_state(model, ws, 0.0, StartMode::rest, ws.state);
   const double speed = model.spec().flight.velocity.x();
   const double ar = model.planform().aspect_ratio();
   const double alpha = model.motion(Side::right).pitch.at(0.0, model.frequency()).value;

@@ -1,27 +1,50 @@
 #include "flapline/aero/aero_model.hpp"
 
+#include <cassert>
+
 #include "flapline/aero/quasi_steady.hpp"
 #include "flapline/aero/lifting_line.hpp"
 #include "flapline/aero/wagner.hpp"
 
 namespace flapline {
 
-std::unique_ptr<AeroScratch> AeroModel::make_scratch(const Model&) const { return nullptr; }
+std::unique_ptr<AeroScratch> AeroModel::make_scratch(const Model&,
+                                                     std::unique_ptr<AeroScratch>) const {
+  return nullptr;
+}
 
 void AeroModel::prepare_run(const Model&, Workspace&) const {}
 
 double AeroModel::stiffest_rate(const Model&, Workspace&, double) const { return 0.0; }
 
-std::shared_ptr<const AeroModel> make_aero_model(const AeroOptions& options) {
-  switch (options.kind) {
+const AeroModel& aero_model(ModelKind kind) {
+  static const QuasiSteadyModel quasi_steady;
+  static const WagnerModel wagner;
+  static const LiftingLineModel lifting_line;
+  switch (kind) {
     case ModelKind::quasi_steady:
-      return std::make_shared<QuasiSteadyModel>();
+      return quasi_steady;
     case ModelKind::wagner:
-      return std::make_shared<WagnerModel>();
+      return wagner;
     case ModelKind::lifting_line:
-      return std::make_shared<LiftingLineModel>();
+      return lifting_line;
   }
-  return nullptr;
+  assert(false && "every ModelKind has a model");
+  return quasi_steady;
+}
+
+const AeroModel& attach_aero(const Model& model, Workspace& ws) {
+  assert(ws.built_for(model) && "a Workspace serves the Model it was built or reset for");
+  const AeroModel& aero = aero_model(model);
+  if (ws.state.size() != aero.state_size(model) || (!ws.aero_scratch && ws.retired_scratch) ||
+      (ws.aero_scratch && ws.aero_scratch->kind != aero.kind())) {
+    ws.state.setZero(aero.state_size(model));
+    std::unique_ptr<AeroScratch> old =
+        ws.aero_scratch ? std::move(ws.aero_scratch) : std::move(ws.retired_scratch);
+    ws.aero_scratch = aero.make_scratch(model, std::move(old));
+    if (ws.aero_scratch) ws.aero_scratch->kind = aero.kind();
+  }
+  return aero;
 }
 
 }  // namespace flapline

@@ -1,8 +1,9 @@
 #include "flapline/aero/lag_states.hpp"
 
-#include "flapline/simulation/model.hpp"
-#include "flapline/simulation/stepper.hpp"
-#include "flapline/simulation/workspace.hpp"
+#include "flapline/case/model.hpp"
+#include "flapline/case/stage_kinematics.hpp"
+#include "flapline/case/stepper.hpp"
+#include "flapline/case/workspace.hpp"
 
 namespace flapline {
 

@@ -1,14 +1,16 @@
 #include "flapline/aero/lifting_line.hpp"
 
 #include <array>
+#include <cassert>
 #include <vector>
 
 #include "flapline/aero/lag_states.hpp"
 #include "flapline/aero/section_loads.hpp"
 #include "flapline/aero/vortex_filament.hpp"
 #include "flapline/common/math.hpp"
-#include "flapline/simulation/model.hpp"
-#include "flapline/simulation/workspace.hpp"
+#include "flapline/case/model.hpp"
+#include "flapline/case/stage_kinematics.hpp"
+#include "flapline/case/workspace.hpp"
 
 namespace flapline {
 namespace {
@@ -32,6 +34,8 @@ struct LiftingLineScratch final : AeroScratch {
 };
 
 LiftingLineScratch& scratch_of(Workspace& ws) {
+  assert(ws.aero_scratch && ws.aero_scratch->kind == ModelKind::lifting_line &&
+         "the lifting line runs on a Workspace attached to it (attach_aero)");
   return static_cast<LiftingLineScratch&>(*ws.aero_scratch);
 }
 
@@ -190,8 +194,15 @@ Eigen::Index LiftingLineModel::state_size(const Model& model) const {
   return 2 * model.strip_count();
 }
 
-std::unique_ptr<AeroScratch> LiftingLineModel::make_scratch(const Model& model) const {
+std::unique_ptr<AeroScratch> LiftingLineModel::make_scratch(
+    const Model& model, std::unique_ptr<AeroScratch> previous) const {
   auto s = std::make_unique<LiftingLineScratch>();
+  if (previous && previous->kind == ModelKind::lifting_line) {
+    // Keep the per-phase matrices' allocations; prepare_run marks every slot empty.
+    auto& old = static_cast<LiftingLineScratch&>(*previous);
+    s->g_cache = std::move(old.g_cache);
+    s->kg_cache = std::move(old.kg_cache);
+  }
   const Eigen::Index n2 = model.strip_count();
   const WagnerCoefficients w = wagner_coefficients(model.aero_options().wagner_fit);
   s->K.setZero(n2, n2);
@@ -219,6 +230,7 @@ std::unique_ptr<AeroScratch> LiftingLineModel::make_scratch(const Model& model) 
     s->kg_cache.assign(1, Eigen::MatrixXd::Zero(n2, n2));
     s->filled.assign(1, 0);
   }
+  s->kind = ModelKind::lifting_line;
   return s;
 }
 
@@ -230,9 +242,17 @@ void LiftingLineModel::prepare_run(const Model& model, Workspace& ws) const {
   const double bytes = 2.0 * 8.0 * static_cast<double>(n2 * n2) * static_cast<double>(slots);
   if (model.periodic_kinematics() && model.aero_options().span_coupling != SpanCoupling::none &&
       bytes <= 256.0 * 1024 * 1024) {
-    s.g_cache.assign(slots, Eigen::MatrixXd::Zero(n2, n2));
-    s.kg_cache.assign(slots, Eigen::MatrixXd::Zero(n2, n2));
+    // Slots are read only once filled, so reused matrices need no clearing.
+    s.g_cache.resize(slots);
+    s.kg_cache.resize(slots);
+    for (std::size_t j = 0; j < slots; ++j) {
+      s.g_cache[j].resize(n2, n2);
+      s.kg_cache[j].resize(n2, n2);
+    }
     s.filled.assign(slots, 0);
+  } else {
+    s.g_cache.clear();
+    s.kg_cache.clear();
   }
 }
 
@@ -287,6 +307,7 @@ double LiftingLineModel::stiffest_rate(const Model& model, Workspace& ws, double
 Eigen::MatrixXd influence_matrix(const Model& model, Workspace& ws, double t) {
   const Eigen::Index n2 = model.strip_count();
   if (model.aero_options().kind != ModelKind::lifting_line) return Eigen::MatrixXd::Zero(n2, n2);
+  attach_aero(model, ws);
   update_speeds(model, ws, t);
   LiftingLineScratch& s = scratch_of(ws);
   assemble(model, ws, s);

@@ -3,8 +3,9 @@
 #include <cmath>
 
 #include "flapline/common/math.hpp"
-#include "flapline/simulation/model.hpp"
-#include "flapline/simulation/workspace.hpp"
+#include "flapline/case/model.hpp"
+#include "flapline/case/stage_kinematics.hpp"
+#include "flapline/case/workspace.hpp"
 
 namespace flapline {
 namespace {

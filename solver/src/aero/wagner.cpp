@@ -4,8 +4,9 @@
 
 #include "flapline/aero/lag_states.hpp"
 #include "flapline/aero/section_loads.hpp"
-#include "flapline/simulation/model.hpp"
-#include "flapline/simulation/workspace.hpp"
+#include "flapline/case/model.hpp"
+#include "flapline/case/stage_kinematics.hpp"
+#include "flapline/case/workspace.hpp"
 
 namespace flapline {
 

@@ -46,12 +46,12 @@ const std::vector<ComparedQuantity>& compared_quantities() {
       {"mean yaw moment N (N m)", [](const RunSummary& s) { return s.averages.mean.moment.z(); }},
       {"mean power to the air (W)", [](const RunSummary& s) { return s.averages.power_air_mean; }},
       {"mean actuator power (W)", [](const RunSummary& s) { return s.averages.power_actuator_mean; }},
-      {"lift / power to the air (N/W)", [](const RunSummary& s) { return or_nan(s.figures.lift_to_power); }},
-      {"mean lift coefficient", [](const RunSummary& s) { return or_nan(s.figures.mean_lift_coefficient); }},
-      {"aspect ratio of the pair", [](const RunSummary& s) { return s.figures.aspect_ratio; }},
-      {"r2 hat", [](const RunSummary& s) { return s.figures.r2; }},
-      {"Reynolds number", [](const RunSummary& s) { return or_nan(s.figures.reynolds_number); }},
-      {"reduced frequency", [](const RunSummary& s) { return or_nan(s.figures.reduced_frequency); }},
+      {"lift / power to the air (N/W)", [](const RunSummary& s) { return or_nan(s.derived.lift_to_power); }},
+      {"mean lift coefficient", [](const RunSummary& s) { return or_nan(s.derived.mean_lift_coefficient); }},
+      {"aspect ratio of the pair", [](const RunSummary& s) { return s.derived.aspect_ratio; }},
+      {"r2 hat", [](const RunSummary& s) { return s.derived.r2; }},
+      {"Reynolds number", [](const RunSummary& s) { return or_nan(s.derived.reynolds_number); }},
+      {"reduced frequency", [](const RunSummary& s) { return or_nan(s.derived.reduced_frequency); }},
       {"cycles to converge", [](const RunSummary& s) { return static_cast<double>(s.cycles); }}};
   return q;
 }

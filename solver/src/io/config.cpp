@@ -33,7 +33,7 @@ struct Source {
   std::string file;
   std::string base_dir;
   YAML::Node root;
-  std::map<std::string, std::string> overrides;  // key path -> "path=value" as typed
+  std::map<std::string, std::string> overrides;  // key path -> "--set path=value" as typed
 
   /// Node at a dotted path, or an undefined node.
   YAML::Node find(const std::string& path) const {
@@ -61,7 +61,7 @@ struct Source {
   /// Put file and line on an error raised for `path`; `at` is the node when the caller has it.
   void locate(InputError& e, const YAML::Node* at = nullptr) const {
     if (const std::string* o = override_for(e.key())) {
-      e.locate("command line (--set " + *o + ")", 0);
+      e.locate("command line (" + *o + ")", 0);
       return;
     }
     if (at && at->IsDefined() && at->Mark().line >= 0) {
@@ -530,6 +530,72 @@ std::string read_file(const std::string& path) {
   return ss.str();
 }
 
+/// Set (or remove) the node at a dotted key path of `root`, creating maps on the way. A part
+/// that is a whole number indexes a list (`flight.velocity.0`). `where` names the origin of the
+/// override in messages (e.g. "command line (--set k=v)").
+void apply_override(YAML::Node& root, const std::string& path, const std::string& text,
+                    bool remove, const std::string& where) {
+  auto fail = [&](const std::string& allowed) {
+    InputError e(path, "'" + text + "'", allowed);
+    e.locate(where, 0);
+    throw e;
+  };
+  YAML::Node value;
+  if (!remove) {
+    try {
+      value = YAML::Load(text);
+    } catch (const YAML::ParserException& ex) {
+      fail("the value is not valid YAML: " + ex.msg);
+    }
+  }
+  if (!root.IsDefined() || root.IsNull()) root = YAML::Node(YAML::NodeType::Map);
+  std::vector<std::string> parts;
+  std::stringstream ss(path);
+  for (std::string part; std::getline(ss, part, '.');) parts.push_back(part);
+  if (parts.empty() || std::any_of(parts.begin(), parts.end(),
+                                   [](const std::string& p) { return p.empty(); }))
+    fail("the key path must be names joined by dots, e.g. gait.stroke.amplitude");
+  auto list_index = [](const std::string& part) -> long {
+    if (part.empty() || part.size() > 6 ||
+        !std::all_of(part.begin(), part.end(), [](char ch) { return ch >= '0' && ch <= '9'; }))
+      return -1;
+    return std::stol(part);
+  };
+  YAML::Node cur = root;
+  for (std::size_t i = 0; i < parts.size(); ++i) {
+    const bool last = i + 1 == parts.size();
+    if (cur.IsSequence()) {
+      const long k = list_index(parts[i]);
+      if (k < 0 || static_cast<std::size_t>(k) >= cur.size())
+        fail("'" + parts[i] + "' must index the list (0 to " + std::to_string(cur.size() - 1) +
+             ")");
+      if (last) {
+        if (remove) fail("a list element cannot be removed; set the whole list instead");
+        cur[static_cast<std::size_t>(k)] = value;
+        return;
+      }
+      YAML::Node next = cur[static_cast<std::size_t>(k)];
+      cur.reset(next);
+      continue;
+    }
+    if (!cur.IsMap()) fail("cannot set a key inside a non-map value");
+    if (last) {
+      if (remove)
+        cur.remove(parts[i]);
+      else
+        cur[parts[i]] = value;
+      return;
+    }
+    YAML::Node next = cur[parts[i]];
+    if (!next.IsDefined() || next.IsNull()) {
+      if (remove) return;  // nothing to remove
+      cur[parts[i]] = YAML::Node(YAML::NodeType::Map);
+      next = cur[parts[i]];
+    }
+    cur.reset(next);
+  }
+}
+
 Source parse(const std::string& text, const std::string& name, const std::string& base_dir,
              const std::vector<std::string>& overrides) {
   Source src;
@@ -550,39 +616,8 @@ Source parse(const std::string& text, const std::string& name, const std::string
       throw e;
     }
     const std::string path = o.substr(0, eq);
-    YAML::Node value;
-    try {
-      value = YAML::Load(o.substr(eq + 1));
-    } catch (const YAML::ParserException& ex) {
-      InputError e(path, "'" + o.substr(eq + 1) + "'", "the value is not valid YAML: " + ex.msg);
-      e.locate("command line (--set " + o + ")", 0);
-      throw e;
-    }
-    if (!src.root.IsDefined() || src.root.IsNull()) src.root = YAML::Node(YAML::NodeType::Map);
-    std::vector<std::string> parts;
-    std::stringstream ss(path);
-    for (std::string part; std::getline(ss, part, '.');) parts.push_back(part);
-    YAML::Node cur = src.root;
-    for (std::size_t i = 0; i + 1 < parts.size(); ++i) {
-      if (!cur.IsMap()) {
-        InputError e(path, "'" + o.substr(eq + 1) + "'", "cannot set a key inside a non-map value");
-        e.locate("command line (--set " + o + ")", 0);
-        throw e;
-      }
-      YAML::Node next = cur[parts[i]];
-      if (!next.IsDefined() || next.IsNull()) {
-        cur[parts[i]] = YAML::Node(YAML::NodeType::Map);
-        next = cur[parts[i]];
-      }
-      cur.reset(next);
-    }
-    if (!cur.IsMap()) {
-      InputError e(path, "'" + o.substr(eq + 1) + "'", "cannot set a key inside a non-map value");
-      e.locate("command line (--set " + o + ")", 0);
-      throw e;
-    }
-    cur[parts.back()] = value;
-    src.overrides[path] = o;
+    apply_override(src.root, path, o.substr(eq + 1), false, "command line (--set " + o + ")");
+    src.overrides[path] = "--set " + o;  // the last --set of a key wins
   }
   return src;
 }
@@ -652,6 +687,65 @@ Model model_from_text(const std::string& text, const std::string& name,
                       const std::vector<std::string>& overrides, const std::string& base_dir) {
   const Source src = parse(text, name, base_dir, overrides);
   return build(src, Reader(src).read());
+}
+
+// --- CaseLoader -----------------------------------------------------------------------------
+
+struct CaseLoader::Parsed {
+  Source base;
+};
+
+CaseLoader::CaseLoader(const std::string& path, const std::vector<std::string>& sets)
+    : CaseLoader(read_file(path), path, folder_of(path), sets) {}
+
+CaseLoader::CaseLoader(std::string text, std::string name, std::string base_dir,
+                       std::vector<std::string> sets)
+    : text_(std::move(text)), name_(std::move(name)), base_dir_(std::move(base_dir)),
+      sets_(std::move(sets)),
+      parsed_(std::make_shared<Parsed>(Parsed{parse(text_, name_, base_dir_, sets_)})) {}
+
+CaseLoader::CaseLoader(const CaseLoader& other)
+    : text_(other.text_), name_(other.name_), base_dir_(other.base_dir_), sets_(other.sets_),
+      parsed_(std::make_shared<Parsed>(Parsed{parse(text_, name_, base_dir_, sets_)})) {}
+
+CaseLoader::~CaseLoader() = default;
+
+/// The base document with a case's overrides applied.
+static Source case_source(const Source& base, const studies::CaseSpec& c) {
+  Source src = base;
+  src.root = YAML::Clone(base.root);
+  for (const studies::Override& o : c.overrides) {
+    const std::string shown = o.key + "=" + (o.remove ? "~" : o.text);
+    apply_override(src.root, o.key, o.text, o.remove, "case (" + shown + ")");
+    src.overrides[o.key] = "case " + shown;
+  }
+  return src;
+}
+
+ModelSpec CaseLoader::spec(const studies::CaseSpec& c) const {
+  const Source src = case_source(parsed_->base, c);
+  return Reader(src).read();
+}
+
+Model CaseLoader::build(const studies::CaseSpec& c) const {
+  const Source src = case_source(parsed_->base, c);
+  return ::flapline::io::build(src, Reader(src).read());
+}
+
+void CaseLoader::locate(InputError& e, const studies::CaseSpec& c) const {
+  Source src = parsed_->base;
+  src.root = YAML::Clone(parsed_->base.root);
+  for (const studies::Override& o : c.overrides) {
+    try {
+      apply_override(src.root, o.key, o.text, o.remove, "case");
+    } catch (const InputError&) {
+      return;
+    }
+    src.overrides[o.key] = "case " + o.key + "=" + (o.remove ? "~" : o.text);
+  }
+  InputError located(written_key(src, e.key()), e.value(), e.allowed(), e.hint());
+  src.locate(located);
+  e = located;
 }
 
 }  // namespace flapline::io

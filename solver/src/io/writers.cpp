@@ -9,6 +9,8 @@
 #include <stdexcept>
 
 #include "flapline/common/math.hpp"
+#include "flapline/simulation/summary_keys.hpp"
+#include "flapline/version.hpp"
 
 namespace flapline::io {
 namespace {
@@ -24,15 +26,14 @@ void wrench_cells(std::string& out, const Wrench& w) {
   for (int i = 0; i < 3; ++i) cell(out, w.moment(i));
 }
 
-nlohmann::json optional_json(const std::optional<double>& v) {
-  return v ? nlohmann::json(*v) : nlohmann::json(nullptr);
+std::string replace_all(std::string s, const std::string& from, const std::string& to) {
+  for (std::size_t p = s.find(from); p != std::string::npos; p = s.find(from, p + to.size()))
+    s.replace(p, from.size(), to);
+  return s;
 }
 
-nlohmann::json wrench_json(const Wrench& w) {
-  return {{"lift_N", -w.force.z()},  {"thrust_N", w.force.x()}, {"side_force_N", w.force.y()},
-          {"X_N", w.force.x()},      {"Y_N", w.force.y()},      {"Z_N", w.force.z()},
-          {"L_roll_Nm", w.moment.x()}, {"M_pitch_Nm", w.moment.y()}, {"N_yaw_Nm", w.moment.z()}};
-}
+/// Machine-readable files never carry a negative zero.
+double no_negative_zero(double v) { return v == 0.0 ? 0.0 : v; }
 
 }  // namespace
 
@@ -104,50 +105,25 @@ std::string spanwise_csv(const RunSummary& s) {
 
 std::string summary_json(const RunSummary& s, const std::string& config_path) {
   using nlohmann::json;
-  const CycleStats& a = s.averages;
-  const Figures& f = s.figures;
   json j;
+  j["version"] = kVersion;
   j["title"] = s.title;
   if (!config_path.empty()) j["config"] = config_path;
   j["model"] = s.model_label;
   j["status"] = std::string(to_string(s.status));
   j["message"] = s.message;
   j["warnings"] = s.warnings;
-  j["run"] = {{"frequency_Hz", s.frequency},
-              {"strips_per_wing", s.strips_per_wing},
-              {"steps_per_cycle", s.steps_per_cycle},
-              {"samples_per_cycle", s.samples_per_cycle},
-              {"cycles", s.cycles},
-              {"periodicity_residual", s.periodicity_residual},
-              {"state_residual", s.state_residual}};
-  j["air"] = {{"density_kg_m3", s.air_density},
-              {"kinematic_viscosity_m2_s", s.kinematic_viscosity}};
-  j["wing"] = {{"span_m", f.span},           {"area_one_wing_m2", f.area},
-               {"mean_chord_m", f.mean_chord}, {"aspect_ratio_pair", f.aspect_ratio},
-               {"r1_hat", f.r1},             {"r2_hat", f.r2},
-               {"r3_hat", f.r3}};
-  json means = wrench_json(a.mean);
-  means["right_wing"] = wrench_json(a.wing_mean[0]);
-  means["left_wing"] = wrench_json(a.wing_mean[1]);
-  j["cycle_mean"] = means;
-  j["power"] = {{"air_mean_W", a.power_air_mean},
-                {"air_peak_W", a.power_air_peak},
-                {"air_mean_positive_W", a.power_air_mean_positive},
-                {"actuator_mean_W", a.power_actuator_mean},
-                {"actuator_peak_W", a.power_actuator_peak},
-                {"actuator_mean_positive_W", a.power_actuator_mean_positive},
-                {"lift_to_power_N_per_W", optional_json(f.lift_to_power)}};
-  j["figures"] = {{"reference_speed_m_s", f.reference_speed},
-                  {"mean_lift_coefficient", optional_json(f.mean_lift_coefficient)},
-                  {"reynolds_number", optional_json(f.reynolds_number)},
-                  {"reduced_frequency", optional_json(f.reduced_frequency)},
-                  {"advance_ratio", optional_json(f.advance_ratio)},
-                  {"stroke_amplitude_deg", f.stroke_amplitude / kDegree},
-                  {"airspeed_m_s", f.airspeed},
-                  {"force_rms_N", a.force_rms},
-                  {"induced_drag_N", a.induced_drag_mean},
-                  {"reverse_flow_fraction", f.reverse_flow_fraction},
-                  {"high_alpha_fraction", f.high_alpha_fraction}};
+  // Every scalar from the frozen key list (simulation/summary_keys.hpp), nested by its path.
+  for (const SummaryKey& k : summary_keys()) {
+    const std::optional<double> v = k.value(s);
+    json& slot = j[json::json_pointer("/" + replace_all(k.path, ".", "/"))];
+    if (!v)
+      slot = nullptr;
+    else if (k.integer)
+      slot = static_cast<long long>(*v);
+    else
+      slot = no_negative_zero(*v);
+  }
   j["conventions"] =
       "body axes: x forward, y toward the right wing, z down; L roll (+ right wing down), "
       "M pitch (+ nose up), N yaw (+ nose right); lift = -Z, thrust = X, side force = Y; "

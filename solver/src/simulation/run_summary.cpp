@@ -66,9 +66,9 @@ std::string RunSummary::brief_report() const {
   out += line("  power to the air: mean %.5g W, peak %.5g W; actuator mean %.5g W",
               averages.power_air_mean, averages.power_air_peak, averages.power_actuator_mean);
   out += line("  mean lift coefficient %s, Re %s, reduced frequency %s, advance ratio %s",
-              opt(figures.mean_lift_coefficient).c_str(), opt(figures.reynolds_number, "%.0f").c_str(),
-              opt(figures.reduced_frequency).c_str(), opt(figures.advance_ratio).c_str());
-  out += line("  reverse flow: %.1f %% of strip samples", 100.0 * figures.reverse_flow_fraction);
+              opt(derived.mean_lift_coefficient).c_str(), opt(derived.reynolds_number, "%.0f").c_str(),
+              opt(derived.reduced_frequency).c_str(), opt(derived.advance_ratio).c_str());
+  out += line("  reverse flow: %.1f %% of strip samples", 100.0 * derived.reverse_flow_fraction);
   return out + footer(*this);
 }
 
@@ -77,13 +77,13 @@ std::string RunSummary::full_report() const {
   out += line("cycles run %d; lag-state periodicity residual %.2e", cycles, state_residual);
   out += line("air: density %.5g kg/m^3, kinematic viscosity %.4g m^2/s", air_density,
               kinematic_viscosity);
-  const Figures& f = figures;
+  const DerivedQuantities& f = derived;
   out += line("wing: span %.5g m, area %.5g m^2 (one wing), mean chord %.5g m, aspect ratio %.4g",
               f.span, f.area, f.mean_chord, f.aspect_ratio);
   out += line("      r1 %.4f, r2 %.4f, r3 %.4f (non-dimensional radii of moments of area)", f.r1,
               f.r2, f.r3);
   out += line("gait: stroke amplitude (peak to peak) %.4g deg; airspeed %.4g m/s", 
-              f.stroke_amplitude / kDegree, f.airspeed);
+              f.stroke_peak_to_peak / kDegree, f.airspeed);
   out += line("reference speed U_ref %.5g m/s (RMS at r2 R)", f.reference_speed);
   out += "cycle means, body axes (x forward, y right, z down; lift = -Z, thrust = X):\n";
   out += " pair:\n" + wrench_lines(averages.mean, "   ");

@@ -1,8 +1,8 @@
 #include "flapline/simulation/wrench.hpp"
 
 #include "flapline/common/math.hpp"
-#include "flapline/simulation/model.hpp"
-#include "flapline/simulation/workspace.hpp"
+#include "flapline/case/model.hpp"
+#include "flapline/case/workspace.hpp"
 
 namespace flapline {
 

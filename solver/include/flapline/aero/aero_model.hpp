@@ -7,18 +7,12 @@
 #include <Eigen/Core>
 #include <memory>
 
-#include "flapline/aero/aero_options.hpp"
-#include "flapline/simulation/simulation_options.hpp"
+#include "flapline/case/aero_options.hpp"
+#include "flapline/case/model.hpp"
+#include "flapline/case/simulation_options.hpp"
+#include "flapline/case/workspace.hpp"
 
 namespace flapline {
-
-class Model;
-class Workspace;
-
-/// Per-run buffers a model needs beyond the common Workspace (e.g. an influence matrix).
-struct AeroScratch {
-  virtual ~AeroScratch() = default;
-};
 
 /// Stateless strategy object: all run data lives in the Workspace. Thread-safe for distinct
 /// Workspaces.
@@ -30,8 +24,11 @@ class AeroModel {
   /// Number of lag states of the wing pair (0 for a quasi-steady model).
   virtual Eigen::Index state_size(const Model& model) const = 0;
 
-  /// Buffers for one run; null when the common Workspace suffices.
-  virtual std::unique_ptr<AeroScratch> make_scratch(const Model& model) const;
+  /// Buffers for one run; null when the common Workspace suffices. `previous` is the scratch
+  /// a Workspace held before its last reset (or null): a model may take over its allocations,
+  /// but must clear every value in them.
+  virtual std::unique_ptr<AeroScratch> make_scratch(const Model& model,
+                                                    std::unique_ptr<AeroScratch> previous) const;
 
   /// Called by simulate() once before the step loop: the place for run-long buffers (e.g.
   /// per-phase caches) that a Workspace used for single evaluations does not need.
@@ -55,7 +52,15 @@ class AeroModel {
                      const Eigen::VectorXd& x) const = 0;
 };
 
-/// The model selected by the options.
-std::shared_ptr<const AeroModel> make_aero_model(const AeroOptions& options);
+/// The model selected by the options (a shared, stateless object).
+const AeroModel& aero_model(ModelKind kind);
+inline const AeroModel& aero_model(const Model& model) {
+  return aero_model(model.aero_options().kind);
+}
+
+/// Make `ws` ready for the aerodynamic model of `model`: size the lag states (zero) and build the
+/// model's scratch, once per Workspace build or reset (a no-op afterwards). Returns the model.
+/// simulate() calls it; call it yourself before using an AeroModel on a fresh Workspace.
+const AeroModel& attach_aero(const Model& model, Workspace& ws);
 
 }  // namespace flapline

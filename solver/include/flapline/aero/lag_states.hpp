@@ -7,7 +7,7 @@
 #include <Eigen/Core>
 #include <functional>
 
-#include "flapline/aero/aero_options.hpp"
+#include "flapline/case/aero_options.hpp"
 
 namespace flapline {
 

@@ -28,7 +28,8 @@ class LiftingLineModel final : public AeroModel {
  public:
   ModelKind kind() const noexcept override { return ModelKind::lifting_line; }
   Eigen::Index state_size(const Model& model) const override;
-  std::unique_ptr<AeroScratch> make_scratch(const Model& model) const override;
+  std::unique_ptr<AeroScratch> make_scratch(const Model& model,
+                                            std::unique_ptr<AeroScratch> previous) const override;
   void prepare_run(const Model& model, Workspace& ws) const override;
   void initial_state(const Model& model, Workspace& ws, double t, StartMode start,
                      Eigen::VectorXd& x) const override;

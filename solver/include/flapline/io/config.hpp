@@ -4,11 +4,13 @@
 /// file and line of the offending key; `--set key.path=value` overrides are located on the
 /// command line.
 
+#include <memory>
 #include <string>
 #include <vector>
 
 #include "flapline/common/errors.hpp"
-#include "flapline/simulation/model.hpp"
+#include "flapline/case/model.hpp"
+#include "flapline/studies/design.hpp"
 
 namespace flapline::io {
 
@@ -32,5 +34,37 @@ void locate_in_config(InputError& error, const std::string& path,
 
 /// The closest allowed word to `word` (edit distance), or empty when none is close.
 std::string closest_match(const std::string& word, const std::vector<std::string>& allowed);
+
+/// The base configuration of a study, parsed once (with its `--set` overrides), from which every
+/// case's Model is built by applying the case's overrides (the `--set` grammar: a dotted key path,
+/// a whole-number part indexing a list as in `flight.velocity.0`, `remove` dropping the key).
+/// Errors raised for a case's own override are located as "case (key=value)"; errors of the base
+/// file keep its file and line. Not thread-safe: copy it per thread (a copy parses anew).
+class CaseLoader {
+ public:
+  CaseLoader(const std::string& path, const std::vector<std::string>& sets);
+  /// From text; `name` stands for the file in messages, `base_dir` resolves table files.
+  CaseLoader(std::string text, std::string name, std::string base_dir,
+             std::vector<std::string> sets);
+  CaseLoader(const CaseLoader& other);
+  CaseLoader& operator=(const CaseLoader&) = delete;
+  ~CaseLoader();
+
+  /// The case's ModelSpec / Model; throws InputError located as described above.
+  ModelSpec spec(const studies::CaseSpec& c) const;
+  Model build(const studies::CaseSpec& c) const;
+  /// Place an error raised after building (e.g. by the run's step-size check) at its key.
+  void locate(InputError& error, const studies::CaseSpec& c) const;
+
+  const std::string& text() const noexcept { return text_; }
+  const std::string& name() const noexcept { return name_; }
+  const std::vector<std::string>& sets() const noexcept { return sets_; }
+
+ private:
+  struct Parsed;
+  std::string text_, name_, base_dir_;
+  std::vector<std::string> sets_;
+  std::shared_ptr<const Parsed> parsed_;
+};
 
 }  // namespace flapline::io

@@ -7,7 +7,7 @@
 #include <map>
 #include <string>
 
-#include "flapline/simulation/model.hpp"
+#include "flapline/case/model.hpp"
 #include "flapline/simulation/run_summary.hpp"
 
 namespace flapline::io {

@@ -9,7 +9,7 @@
 #include <vector>
 
 #include "flapline/aero/lifting_line.hpp"
-#include "flapline/simulation/model.hpp"
+#include "flapline/case/model.hpp"
 #include "flapline/simulation/run_summary.hpp"
 
 namespace flapline::io {

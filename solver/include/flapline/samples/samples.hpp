@@ -3,7 +3,7 @@
 /// Invented wings and gaits shared by tests, benchmarks and docs (STYLE §9). None of them
 /// describes a real vehicle or animal; each matches a demo config in configs/.
 
-#include "flapline/simulation/model.hpp"
+#include "flapline/case/model.hpp"
 
 namespace flapline::samples {
 

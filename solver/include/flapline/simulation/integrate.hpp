@@ -5,9 +5,11 @@
 
 #include <functional>
 
-#include "flapline/simulation/model.hpp"
+#include "flapline/aero/aero_model.hpp"
+#include "flapline/case/model.hpp"
+#include "flapline/case/stage_kinematics.hpp"
+#include "flapline/case/workspace.hpp"
 #include "flapline/simulation/run_summary.hpp"
-#include "flapline/simulation/workspace.hpp"
 
 namespace flapline {
 
@@ -16,6 +18,9 @@ struct RunControl {
   /// Called after every cycle with the number of cycles done and the relative change of the
   /// cycle means (NaN after the first cycle).
   std::function<void(int cycles_done, double change)> on_cycle;
+  /// False: record no history (studies need only the cycle statistics; every other result is
+  /// the same).
+  bool keep_history = true;
 };
 
 /// One RK4 step (Boost.Odeint runge_kutta4) of ws.state from t to t + dt. Allocation-free once
@@ -27,9 +32,15 @@ void advance(const Model& model, Workspace& ws, double t, double dt);
 /// non-finite load.
 LoadSample evaluate(const Model& model, Workspace& ws, double t);
 
-/// Run a case. Throws NumericalError when a state or a load becomes non-finite.
-/// The Workspace must have been built from the same Model.
+/// Run a case. Throws InputError when a rule that needs the whole case fails (the lag models'
+/// step-size check) and NumericalError when a state or a load becomes non-finite.
+/// The Workspace must have been built for (or reset to) the same Model; a run starts from clean
+/// caches only on a fresh or reset Workspace, so reuse one across cases with ws.reset(model).
 RunSummary simulate(const Model& model, Workspace& ws, const RunControl& control = {});
+
+/// The same, but a failed run is a value: status input_error (with error_key) or blew_up and the
+/// message; never throws those two. For studies, which record a failure and go on.
+RunSummary run_case(const Model& model, Workspace& ws, const RunControl& control = {});
 
 /// Convenience: builds a Workspace for one run.
 RunSummary simulate(const Model& model, const RunControl& control = {});

@@ -8,24 +8,34 @@
 #include <string>
 #include <vector>
 
-#include "flapline/aero/aero_options.hpp"
+#include "flapline/case/aero_options.hpp"
 #include "flapline/kinematics/gait.hpp"
 #include "flapline/simulation/wrench.hpp"
 
 namespace flapline {
 
+/// How a run ended. A failed run is a value too (run_case), so a study records it and goes on.
 enum class RunStatus {
-  converged,          ///< consecutive cycle means agreed within the tolerance
-  cycle_cap_reached,  ///< simulation.max_cycles ran out first
-  single_cycle        ///< only one cycle was run, so periodicity was not checked
+  converged,      ///< consecutive cycle means agreed within the tolerance
+  not_converged,  ///< simulation.max_cycles ran out first (results are those of the last cycle)
+  single_cycle,   ///< only one cycle was run, so periodicity was not checked
+  input_error,    ///< a rule that needs the whole case failed (e.g. too few steps); no results
+  blew_up         ///< a state or a load became non-finite; no results
 };
 template <>
 struct EnumNames<RunStatus> {
-  static constexpr std::array<std::pair<RunStatus, std::string_view>, 3> items{
+  static constexpr std::array<std::pair<RunStatus, std::string_view>, 5> items{
       {{RunStatus::converged, "converged"},
-       {RunStatus::cycle_cap_reached, "cycle_cap_reached"},
-       {RunStatus::single_cycle, "single_cycle"}}};
+       {RunStatus::not_converged, "not_converged"},
+       {RunStatus::single_cycle, "single_cycle"},
+       {RunStatus::input_error, "input_error"},
+       {RunStatus::blew_up, "blew_up"}}};
 };
+
+/// True when the run produced results (converged, not converged or a single cycle).
+inline bool has_results(RunStatus s) noexcept {
+  return s != RunStatus::input_error && s != RunStatus::blew_up;
+}
 
 /// The safety cautions every summary ends with.
 extern const char* const kCautions;
@@ -51,14 +61,15 @@ struct CycleStats {
   double induced_drag_mean = 0;  ///< cycle mean of LoadSample::induced_drag (N)
 };
 
-/// Derived figures (DESIGN §5).
-struct Figures {
+/// Derived scalars (DESIGN §5): planform figures, reference speed and the non-dimensional groups,
+/// flow shares. summary.json group `derived`.
+struct DerivedQuantities {
   double span = 0;             ///< R (m)
   double area = 0;             ///< one wing S (m²)
   double mean_chord = 0;       ///< c̄ = S/R (m)
   double aspect_ratio = 0;     ///< of the pair, 4R²/S_pair
   double r1 = 0, r2 = 0, r3 = 0;  ///< non-dimensional radii of moments of area
-  double stroke_amplitude = 0;  ///< Φ, peak-to-peak stroke of the right wing (rad)
+  double stroke_peak_to_peak = 0;  ///< Φ, peak-to-peak stroke of the right wing (rad)
   double airspeed = 0;          ///< |V − wind| (m/s)
   double reference_speed = 0;   ///< U_ref, RMS of U at r̂₂R over the cycle, both wings (m/s)
   std::optional<double> mean_lift_coefficient;  ///< L̄/(½ρU_ref²S_pair)
@@ -103,8 +114,10 @@ struct RunSummary {
   double air_density = 0;           ///< kg/m³
   double kinematic_viscosity = 0;   ///< m²/s
 
+  std::string error_key;  ///< key path of the offending setting (status input_error)
+
   CycleStats averages;  ///< of the last cycle
-  Figures figures;
+  DerivedQuantities derived;
   std::vector<HistoryRow> history;
   std::vector<SpanwiseRow> spanwise;
 

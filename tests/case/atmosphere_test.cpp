@@ -3,7 +3,7 @@
 
 #include <cmath>
 
-#include "flapline/aero/atmosphere.hpp"
+#include "flapline/case/atmosphere.hpp"
 #include "flapline/common/errors.hpp"
 
 using namespace flapline;

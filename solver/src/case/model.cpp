@@ -1,8 +1,7 @@
-#include "flapline/simulation/model.hpp"
+#include "flapline/case/model.hpp"
 
 #include <cmath>
 
-#include "flapline/aero/aero_model.hpp"
 #include "flapline/common/errors.hpp"
 #include "flapline/common/math.hpp"
 
@@ -71,7 +70,6 @@ Model::Model(ModelSpec spec)
   pair_.three_quarter_arm = twice(0.75 * strips_.chord - strips_.leading_edge);
   pair_.half_arm = twice(0.5 * strips_.chord - strips_.leading_edge);
   pair_.inverse_semichord = 2.0 / pair_.chord;
-  aero_ = make_aero_model(spec_.aero);
   for (const WingMotion& m : motion_)
     for (const Waveform* w : {&m.stroke, &m.deviation, &m.pitch, &m.span_ratio, &m.plunge})
       if (w->spec().shape == WaveShape::step) periodic_ = false;

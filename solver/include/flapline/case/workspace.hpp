@@ -1,14 +1,16 @@
 #pragma once
 /// \file
 /// Every per-run buffer (DESIGN §1): built once from a Model, reused for every step. A Workspace
-/// belongs to one thread at a time; give each worker its own.
+/// belongs to one thread at a time; give each worker its own. It remembers the Model it was built
+/// for (algorithms assert that they are handed that one) and can be `reset` for another Model:
+/// a result never depends on what a Workspace computed before.
 
 #include <Eigen/Core>
 #include <array>
 #include <memory>
 #include <vector>
 
-#include "flapline/aero/aero_model.hpp"
+#include "flapline/case/aero_options.hpp"
 #include "flapline/kinematics/wing_motion.hpp"
 
 namespace flapline {
@@ -27,7 +29,15 @@ struct StripLoads {
   void resize(Eigen::Index n);
 };
 
-struct StepperSlot;  // simulation/stepper.hpp
+/// Per-run buffers an aerodynamic model needs beyond the common Workspace (e.g. an influence
+/// matrix and its per-phase factorisations). The aero layer defines the concrete types and
+/// fills Workspace::aero_scratch (attach_aero in aero/aero_model.hpp).
+struct AeroScratch {
+  virtual ~AeroScratch() = default;
+  ModelKind kind = ModelKind::quasi_steady;  ///< the model that made it
+};
+
+struct StepperSlot;  // case/stepper.hpp
 
 class Workspace {
  public:
@@ -35,6 +45,15 @@ class Workspace {
   ~Workspace();
   Workspace(const Workspace&) = delete;
   Workspace& operator=(const Workspace&) = delete;
+  Workspace(Workspace&&) noexcept;
+  Workspace& operator=(Workspace&&) noexcept;
+
+  /// True when this Workspace was built (or last reset) for `model` (the same object).
+  bool built_for(const Model& model) const noexcept { return model_ == &model; }
+  /// Make this Workspace serve `model` (another case, or the same one afresh): every cache —
+  /// stage, output-sample and influence caches, lag states, any warm start — is cleared, and
+  /// the buffers are kept when the sizes allow, reallocated otherwise.
+  void reset(const Model& model);
 
   std::array<WingPose, 2> poses;  ///< right, left (virtual frames)
   // Stage quantities for all 2N strips (update_speeds):
@@ -57,34 +76,16 @@ class Workspace {
   Eigen::ArrayXXd sample_arrays;  ///< 2N × (6·samples): tangential, w_pivot, w_¾, w_½, U, U/b
   std::vector<char> sample_filled;
   StripLoads loads;
-  Eigen::VectorXd state;  ///< lag states
-  std::unique_ptr<StepperSlot> stepper;  ///< RK4 with its buffers (simulation/stepper.hpp)
+  Eigen::VectorXd state;  ///< lag states (sized by attach_aero)
+  std::unique_ptr<StepperSlot> stepper;  ///< RK4 with its buffers (case/stepper.hpp)
+  /// The aero model's buffers; null until attach_aero, and after reset (which hands the old one
+  /// to the next make_scratch through `retired_scratch`, so large caches are reused).
   std::unique_ptr<AeroScratch> aero_scratch;
+  std::unique_ptr<AeroScratch> retired_scratch;
+
+ private:
+  const Model* model_ = nullptr;
+  void allocate(const Model& model);
 };
-
-/// Index of the per-phase cache slot of time t on a grid of `slots` per cycle (frequency in Hz),
-/// or −1 when there is no cache (slots = 0) or t is off the grid. Shared by every phase cache.
-Eigen::Index cycle_slot(double t, double frequency, Eigen::Index slots);
-
-/// U/b (1/s) and w_¾ (m/s) of every strip at a stage time.
-struct StageSpeeds {
-  Eigen::Ref<const Eigen::ArrayXd> rate;
-  Eigen::Ref<const Eigen::ArrayXd> w_three_quarter;
-};
-
-/// Stage quantities of the lag models at time t. The kinematics are periodic, so each RK4 stage
-/// phase (a multiple of half a step) is computed once per run and then read from the cache; other
-/// times are computed directly (update_speeds). Allocation-free.
-StageSpeeds stage_speeds(const Model& model, Workspace& ws, double t);
-
-/// Poses and the stage quantities at time t (allocation-free; affine-in-r fast path).
-void update_speeds(const Model& model, Workspace& ws, double t);
-
-/// Poses, stage quantities and full section kinematics at time t (output times). Output-sample
-/// phases of periodic kinematics are computed once per run and copied afterwards.
-void update_sections(const Model& model, Workspace& ws, double t);
-
-/// The same without the cache.
-void compute_sections(const Model& model, Workspace& ws, double t);
 
 }  // namespace flapline

@@ -3,7 +3,7 @@
 
 #include <cmath>
 
-#include "flapline/aero/aero_options.hpp"
+#include "flapline/case/aero_options.hpp"
 #include "flapline/common/errors.hpp"
 #include "flapline/common/math.hpp"
 

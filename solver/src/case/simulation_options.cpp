@@ -1,4 +1,4 @@
-#include "flapline/simulation/simulation_options.hpp"
+#include "flapline/case/simulation_options.hpp"
 
 #include <cmath>
 #include <string>

@@ -2,23 +2,22 @@
 /// \file
 /// The immutable description of one case: wing, gait, air, body motion and options (DESIGN §1).
 /// Build it once; algorithms read it through `const Model&` and keep their buffers in a Workspace.
+/// The Model names its aerodynamic model by kind (aero_options().kind); the aero layer above
+/// supplies the implementation (aero_model in aero/aero_model.hpp).
 /// Thread-safety: a Model may be shared by any number of threads, each with its own Workspace.
 
 #include <array>
-#include <memory>
 #include <string>
 
-#include "flapline/aero/aero_options.hpp"
-#include "flapline/aero/atmosphere.hpp"
+#include "flapline/case/aero_options.hpp"
+#include "flapline/case/atmosphere.hpp"
 #include "flapline/geometry/planform.hpp"
 #include "flapline/geometry/strips.hpp"
 #include "flapline/kinematics/gait.hpp"
 #include "flapline/kinematics/wing_motion.hpp"
-#include "flapline/simulation/simulation_options.hpp"
+#include "flapline/case/simulation_options.hpp"
 
 namespace flapline {
-
-class AeroModel;
 
 /// Everything a case is made of, in SI units. The YAML layer fills it; tests build it in code.
 struct ModelSpec {
@@ -54,7 +53,6 @@ class Model {
   const PairArrays& pair() const noexcept { return pair_; }
   const Air& air() const noexcept { return air_; }
   const WingMotion& motion(Side side) const noexcept { return motion_[static_cast<int>(side)]; }
-  const AeroModel& aero() const noexcept { return *aero_; }
   const AeroOptions& aero_options() const noexcept { return spec_.aero; }
   const SimulationOptions& simulation() const noexcept { return spec_.simulation; }
   /// Strips per wing N; the pair has 2N.
@@ -72,7 +70,6 @@ class Model {
   PairArrays pair_;
   Air air_;
   std::array<WingMotion, 2> motion_;
-  std::shared_ptr<const AeroModel> aero_;
   bool periodic_ = true;
 };
 

@@ -1,54 +1,10 @@
-#include "flapline/simulation/workspace.hpp"
+#include "flapline/case/stage_kinematics.hpp"
 
 #include <algorithm>
+#include <cassert>
 #include <cmath>
 
-#include "flapline/simulation/model.hpp"
-#include "flapline/simulation/stepper.hpp"
-
 namespace flapline {
-
-void StripLoads::resize(Eigen::Index n) {
-  force_quarter.setZero(3, n);
-  force_mid.setZero(3, n);
-  couple.setZero(3, n);
-  circulation.setZero(n);
-  w_effective.setZero(n);
-  w_suction.setZero(n);
-  w_induced.setZero(n);
-}
-
-Workspace::~Workspace() = default;
-
-Workspace::Workspace(const Model& model) : stepper(std::make_unique<StepperSlot>()) {
-  const Eigen::Index n = model.strip_count();
-  tangential.setZero(n);
-  w_pivot.setZero(n);
-  w_three_quarter.setZero(n);
-  w_half.setZero(n);
-  speed.setZero(n);
-  rate.setZero(n);
-  sections.resize(static_cast<std::size_t>(n));
-  loads.resize(n);
-  state.setZero(model.aero().state_size(model));
-  aero_scratch = model.aero().make_scratch(model);
-  const Eigen::Index slots = 2 * model.simulation().steps_per_cycle;
-  const double bytes = 2.0 * 8.0 * static_cast<double>(n) * static_cast<double>(slots);
-  if (state.size() > 0 && model.periodic_kinematics() && bytes <= 64.0 * 1024 * 1024) {
-    stage_rate.resize(n, slots);
-    stage_w34.resize(n, slots);
-    stage_filled.assign(static_cast<std::size_t>(slots), 0);
-  }
-  const std::size_t samples = static_cast<std::size_t>(model.simulation().samples_per_cycle);
-  const double sample_bytes =
-      static_cast<double>(samples) * static_cast<double>(n) * (sizeof(SectionState) + 48.0);
-  if (model.periodic_kinematics() && sample_bytes <= 64.0 * 1024 * 1024) {
-    sample_poses.resize(samples);
-    sample_sections.resize(samples * static_cast<std::size_t>(n));
-    sample_arrays.resize(n, 6 * static_cast<Eigen::Index>(samples));
-    sample_filled.assign(samples, 0);
-  }
-}
 
 Eigen::Index cycle_slot(double t, double frequency, Eigen::Index slots) {
   if (slots == 0) return -1;
@@ -60,6 +16,7 @@ Eigen::Index cycle_slot(double t, double frequency, Eigen::Index slots) {
 }
 
 StageSpeeds stage_speeds(const Model& model, Workspace& ws, double t) {
+  assert(ws.built_for(model) && "a Workspace serves the Model it was built or reset for");
   const Eigen::Index j =
       cycle_slot(t, model.frequency(), static_cast<Eigen::Index>(ws.stage_filled.size()));
   if (j >= 0) {
@@ -76,6 +33,7 @@ StageSpeeds stage_speeds(const Model& model, Workspace& ws, double t) {
 }
 
 void update_speeds(const Model& model, Workspace& ws, double t) {
+  assert(ws.built_for(model) && "a Workspace serves the Model it was built or reset for");
   const Eigen::Index n = model.strips_per_wing();
   const PairArrays& pair = model.pair();
   for (int s = 0; s < 2; ++s) {
@@ -92,6 +50,7 @@ void update_speeds(const Model& model, Workspace& ws, double t) {
 }
 
 void update_sections(const Model& model, Workspace& ws, double t) {
+  assert(ws.built_for(model) && "a Workspace serves the Model it was built or reset for");
   const Eigen::Index j =
       cycle_slot(t, model.frequency(), static_cast<Eigen::Index>(ws.sample_filled.size()));
   const Eigen::Index n2 = model.strip_count();

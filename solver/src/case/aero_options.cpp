@@ -1,4 +1,4 @@
-#include "flapline/aero/aero_options.hpp"
+#include "flapline/case/aero_options.hpp"
 
 #include <cmath>
 

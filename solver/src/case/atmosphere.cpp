@@ -1,4 +1,4 @@
-#include "flapline/aero/atmosphere.hpp"
+#include "flapline/case/atmosphere.hpp"
 
 #include <cmath>
 

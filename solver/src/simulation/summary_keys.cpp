@@ -1,0 +1,90 @@
+#include "flapline/simulation/summary_keys.hpp"
+
+#include "flapline/common/math.hpp"
+
+namespace flapline {
+namespace {
+
+using Value = std::optional<double>;
+
+template <int Wing>  // −1 pair, 0 right, 1 left
+const Wrench& wrench_of(const RunSummary& s) {
+  if constexpr (Wing < 0)
+    return s.averages.mean;
+  else
+    return s.averages.wing_mean[Wing];
+}
+
+template <int Wing>
+void add_wrench_keys(std::vector<SummaryKey>& keys, const std::string& prefix) {
+  keys.push_back({prefix + "lift_N", [](const RunSummary& s) -> Value { return -wrench_of<Wing>(s).force.z(); }});
+  keys.push_back({prefix + "thrust_N", [](const RunSummary& s) -> Value { return wrench_of<Wing>(s).force.x(); }});
+  keys.push_back({prefix + "side_force_N", [](const RunSummary& s) -> Value { return wrench_of<Wing>(s).force.y(); }});
+  keys.push_back({prefix + "X_N", [](const RunSummary& s) -> Value { return wrench_of<Wing>(s).force.x(); }});
+  keys.push_back({prefix + "Y_N", [](const RunSummary& s) -> Value { return wrench_of<Wing>(s).force.y(); }});
+  keys.push_back({prefix + "Z_N", [](const RunSummary& s) -> Value { return wrench_of<Wing>(s).force.z(); }});
+  keys.push_back({prefix + "L_roll_Nm", [](const RunSummary& s) -> Value { return wrench_of<Wing>(s).moment.x(); }});
+  keys.push_back({prefix + "M_pitch_Nm", [](const RunSummary& s) -> Value { return wrench_of<Wing>(s).moment.y(); }});
+  keys.push_back({prefix + "N_yaw_Nm", [](const RunSummary& s) -> Value { return wrench_of<Wing>(s).moment.z(); }});
+}
+
+std::vector<SummaryKey> make_keys() {
+  std::vector<SummaryKey> k;
+  auto add = [&k](const char* path, Value (*f)(const RunSummary&)) { k.push_back({path, f}); };
+  auto add_count = [&k](const char* path, Value (*f)(const RunSummary&)) {
+    k.push_back({path, f, true});
+  };
+  add("run.frequency_Hz", [](const RunSummary& s) -> Value { return s.frequency; });
+  add_count("run.strips_per_wing", [](const RunSummary& s) -> Value { return s.strips_per_wing; });
+  add_count("run.steps_per_cycle", [](const RunSummary& s) -> Value { return s.steps_per_cycle; });
+  add_count("run.samples_per_cycle", [](const RunSummary& s) -> Value { return s.samples_per_cycle; });
+  add_count("run.cycles", [](const RunSummary& s) -> Value { return s.cycles; });
+  add("run.periodicity_residual", [](const RunSummary& s) -> Value { return s.periodicity_residual; });
+  add("run.state_residual", [](const RunSummary& s) -> Value { return s.state_residual; });
+  add("air.density_kg_m3", [](const RunSummary& s) -> Value { return s.air_density; });
+  add("air.kinematic_viscosity_m2_s", [](const RunSummary& s) -> Value { return s.kinematic_viscosity; });
+  add("wing.span_m", [](const RunSummary& s) -> Value { return s.derived.span; });
+  add("wing.area_one_wing_m2", [](const RunSummary& s) -> Value { return s.derived.area; });
+  add("wing.mean_chord_m", [](const RunSummary& s) -> Value { return s.derived.mean_chord; });
+  add("wing.aspect_ratio_pair", [](const RunSummary& s) -> Value { return s.derived.aspect_ratio; });
+  add("wing.r1_hat", [](const RunSummary& s) -> Value { return s.derived.r1; });
+  add("wing.r2_hat", [](const RunSummary& s) -> Value { return s.derived.r2; });
+  add("wing.r3_hat", [](const RunSummary& s) -> Value { return s.derived.r3; });
+  add_wrench_keys<-1>(k, "cycle_mean.");
+  add_wrench_keys<0>(k, "cycle_mean.right_wing.");
+  add_wrench_keys<1>(k, "cycle_mean.left_wing.");
+  add("power.air_mean_W", [](const RunSummary& s) -> Value { return s.averages.power_air_mean; });
+  add("power.air_peak_W", [](const RunSummary& s) -> Value { return s.averages.power_air_peak; });
+  add("power.air_mean_positive_W", [](const RunSummary& s) -> Value { return s.averages.power_air_mean_positive; });
+  add("power.actuator_mean_W", [](const RunSummary& s) -> Value { return s.averages.power_actuator_mean; });
+  add("power.actuator_peak_W", [](const RunSummary& s) -> Value { return s.averages.power_actuator_peak; });
+  add("power.actuator_mean_positive_W", [](const RunSummary& s) -> Value { return s.averages.power_actuator_mean_positive; });
+  add("power.lift_to_power_N_per_W", [](const RunSummary& s) -> Value { return s.derived.lift_to_power; });
+  add("derived.reference_speed_m_s", [](const RunSummary& s) -> Value { return s.derived.reference_speed; });
+  add("derived.mean_lift_coefficient", [](const RunSummary& s) -> Value { return s.derived.mean_lift_coefficient; });
+  add("derived.reynolds_number", [](const RunSummary& s) -> Value { return s.derived.reynolds_number; });
+  add("derived.reduced_frequency", [](const RunSummary& s) -> Value { return s.derived.reduced_frequency; });
+  add("derived.advance_ratio", [](const RunSummary& s) -> Value { return s.derived.advance_ratio; });
+  add("derived.stroke_peak_to_peak_deg", [](const RunSummary& s) -> Value { return s.derived.stroke_peak_to_peak / kDegree; });
+  add("derived.airspeed_m_s", [](const RunSummary& s) -> Value { return s.derived.airspeed; });
+  add("derived.force_rms_N", [](const RunSummary& s) -> Value { return s.averages.force_rms; });
+  add("derived.induced_drag_N", [](const RunSummary& s) -> Value { return s.averages.induced_drag_mean; });
+  add("derived.reverse_flow_fraction", [](const RunSummary& s) -> Value { return s.derived.reverse_flow_fraction; });
+  add("derived.high_alpha_fraction", [](const RunSummary& s) -> Value { return s.derived.high_alpha_fraction; });
+  return k;
+}
+
+}  // namespace
+
+const std::vector<SummaryKey>& summary_keys() {
+  static const std::vector<SummaryKey> keys = make_keys();
+  return keys;
+}
+
+const SummaryKey* find_summary_key(const std::string& path) {
+  for (const SummaryKey& k : summary_keys())
+    if (k.path == path) return &k;
+  return nullptr;
+}
+
+}  // namespace flapline
