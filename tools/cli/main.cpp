@@ -10,6 +10,7 @@
 #include <filesystem>
 #include <iostream>
 #include <optional>
+#include <sstream>
 #include <string>
 #include <vector>
 
@@ -20,51 +21,19 @@
 #include "flapline/io/plots.hpp"
 #include "flapline/io/run_plots.hpp"
 #include "flapline/io/writers.hpp"
+#include "flapline/studies/runner.hpp"
 #include "flapline/simulation/integrate.hpp"
 #include "flapline/validation/validation.hpp"
 #include "flapline/version.hpp"
+#include "cli_common.hpp"
+#include "sweep.hpp"
 
 namespace {
 
 using namespace flapline;
 namespace fs = std::filesystem;
 
-constexpr int kExitWrite = 1, kExitInput = 2, kExitNumerical = 3, kExitValidation = 4;
-const char* const kNoGnuplot = "figures skipped: gnuplot (with PNG and SVG output) is not installed";
-
-/// Progress on a terminal for runs longer than about a second; silent otherwise.
-class Progress {
- public:
-  Progress(bool quiet, std::string label)
-      : enabled_(!quiet && ::isatty(STDERR_FILENO)), label_(std::move(label)),
-        start_(std::chrono::steady_clock::now()) {}
-  ~Progress() { done(); }
-  RunControl control() {
-    RunControl c;
-    if (enabled_)
-      c.on_cycle = [this](int cycles, double change) {
-        const double elapsed = std::chrono::duration<double>(std::chrono::steady_clock::now() - start_).count();
-        if (elapsed < 1.0) return;
-        if (std::isfinite(change))
-          std::fprintf(stderr, "\r%s: cycle %d, change of the cycle means %.2e   ",
-                       label_.c_str(), cycles, change);
-        else
-          std::fprintf(stderr, "\r%s: cycle %d   ", label_.c_str(), cycles);
-        shown_ = true;
-      };
-    return c;
-  }
-  void done() {
-    if (shown_) std::fprintf(stderr, "\r%*s\r", 78, "");
-    shown_ = false;
-  }
-
- private:
-  bool enabled_;
-  std::string label_;
-  std::chrono::steady_clock::time_point start_;
-  bool shown_ = false;
-};
+using namespace flapline::cli;
 
 RunSummary run_model(const Model& model, const std::string& config,
                      const std::vector<std::string>& sets, bool quiet) {
@@ -124,14 +93,40 @@ int run_command(const RunArgs& a) {
 
 // --- compare ------------------------------------------------------------------------------------
 struct CompareArgs {
-  std::vector<std::string> configs, sets;
+  std::vector<std::string> configs, sets, variants;
   std::string out, model;
-  int strips = 0, steps = 0;
+  int strips = 0, steps = 0, threads = 0;
   bool quiet = false, plot = true;
 };
 
+/// "--variant k=v;k=v" → overrides (';' separates, so values may hold YAML flow lists).
+studies::CaseSpec parse_variant(const std::string& text) {
+  studies::CaseSpec c;
+  std::stringstream ss(text);
+  for (std::string part; std::getline(ss, part, ';');) {
+    const auto a = part.find_first_not_of(" \t"), b = part.find_last_not_of(" \t");
+    if (a == std::string::npos) continue;
+    part = part.substr(a, b - a + 1);
+    const auto eq = part.find('=');
+    if (eq == std::string::npos || eq == 0)
+      throw InputError("--variant", "'" + text + "'",
+                       "must be key.path=value pairs separated by ';'");
+    c.overrides.push_back({part.substr(0, eq), part.substr(eq + 1), false});
+  }
+  if (c.overrides.empty())
+    throw InputError("--variant", "'" + text + "'", "must hold at least one key.path=value");
+  return c;
+}
+
 int compare_command(const CompareArgs& a) {
-  // Same model and resolution for every case: the first config's, unless given here.
+  // A comparison is a small study: every case built with the same model and resolution (the
+  // first config's unless given here), run in parallel by the studies runner.
+  if (!a.variants.empty() && a.configs.size() != 1)
+    throw InputError("--variant", "'" + a.variants.front() + "'",
+                     "compares variants of one config: give exactly one config file");
+  if (a.variants.empty() && a.configs.size() < 2)
+    throw InputError("compare", "'" + a.configs.front() + "'",
+                     "needs two or more configs, or one config with --variant sets");
   const ModelSpec first = io::load_spec(a.configs.front(), a.sets);
   std::vector<std::string> common = a.sets;
   const std::string kind = a.model.empty() ? std::string(to_string(first.aero.kind)) : a.model;
@@ -141,10 +136,59 @@ int compare_command(const CompareArgs& a) {
   common.push_back("wing.strips=" + std::to_string(strips));
   common.push_back("simulation.steps_per_cycle=" + std::to_string(steps));
   common.push_back("simulation.samples_per_cycle=" + std::to_string(first.simulation.samples_per_cycle));
+  std::vector<io::CaseLoader> loaders;
+  std::vector<studies::CaseSpec> specs;
+  std::vector<std::string> names;
+  for (std::size_t f = 0; f < a.configs.size(); ++f) {
+    loaders.emplace_back(a.configs[f], common);
+    if (a.variants.empty()) {
+      specs.push_back({});
+      specs.back().source = f;
+      names.push_back(fs::path(a.configs[f]).stem().string());
+    }
+  }
+  for (const std::string& v : a.variants) {
+    specs.push_back(parse_variant(v));
+    names.push_back(v);
+  }
+  // Every case must load before any runs (bad input: one line, nothing written).
+  for (std::size_t c = 0; c < specs.size(); ++c) {
+    try {
+      (void)loaders[specs[c].source].build(specs[c]);
+    } catch (InputError& e) {
+      if (e.file().rfind("case (", 0) == 0) e.locate("command line (--variant " + names[c] + ")", 0);
+      throw;
+    }
+  }
+  std::vector<RunSummary> results(specs.size());
+  std::vector<std::size_t> indices(specs.size());
+  for (std::size_t c = 0; c < specs.size(); ++c) indices[c] = c;
+  studies::RunnerOptions options;
+  options.threads = a.threads;
+  options.keep_history = true;  // the overlays plot the last cycle
+  StudyProgress progress(a.quiet, "compare", specs.size());
+  std::size_t finished = 0;
+  studies::run_cases(
+      specs, indices,
+      [&loaders] {
+        auto own = std::make_shared<std::vector<io::CaseLoader>>(loaders);
+        return [own](const studies::CaseSpec& c) { return (*own)[c.source].build(c); };
+      },
+      options,
+      [&](std::size_t i, const RunSummary& s) {
+        results[i] = s;
+        progress.update(++finished, 0);
+      });
+  progress.done();
   std::vector<io::ComparedCase> cases;
-  for (const auto& config : a.configs) {
-    const Model model = io::load_model(config, common);
-    cases.push_back({fs::path(config).stem().string(), run_model(model, config, common, a.quiet)});
+  for (std::size_t c = 0; c < specs.size(); ++c) {
+    if (!has_results(results[c].status)) {  // the exit statuses of `run`
+      const bool input = results[c].status == RunStatus::input_error;
+      std::cerr << "flapline: " << (input ? "error" : "run stopped") << ": case " << names[c]
+                << ": " << results[c].message << "\n";
+      return input ? kExitInput : kExitNumerical;
+    }
+    cases.push_back({names[c], results[c]});
   }
   const std::string settings =
       "Every case run with model " + kind + ", " + std::to_string(strips) + " strips per wing, " +
@@ -263,7 +307,16 @@ int main(int argc, char** argv) {
   CompareArgs cmp;
   CLI::App* cmd_cmp = app.add_subcommand(
       "compare", "Run several cases with the same model and resolution; tabulate and overlay them");
-  cmd_cmp->add_option("configs", cmp.configs, "Two or more YAML case files")->required()->expected(2, -1);
+  cmd_cmp->add_option("configs", cmp.configs,
+                      "Two or more YAML case files, or one with --variant sets")
+      ->required()
+      ->expected(1, -1);
+  cmd_cmp->add_option("--variant", cmp.variants,
+                      "Compare variants of one config: key.path=value pairs separated by ';' "
+                      "(repeat for each variant)")
+      ->take_all();
+  cmd_cmp->add_option("--threads", cmp.threads, "Worker threads (default: the cores available)")
+      ->check(CLI::Range(1, 4096));
   cmd_cmp->add_option("-o,--out", cmp.out, "Output folder (default: results/comparison)");
   cmd_cmp->add_option("--model", cmp.model, "Model for every case (default: the first config's)")
       ->check(CLI::IsMember({"quasi_steady", "wagner", "lifting_line"}));
@@ -274,6 +327,36 @@ int main(int argc, char** argv) {
   cmd_cmp->add_option("--set", cmp.sets, "Override a key in every config")->take_all();
   cmd_cmp->add_flag("-q,--quiet", cmp.quiet, "Print nothing on success");
   cmd_cmp->add_flag("--plot,!--no-plot", cmp.plot, "Overlay figures with gnuplot (default: on)");
+
+  SweepArgs sw;
+  CLI::App* cmd_sweep = app.add_subcommand(
+      "sweep", "Run a design of cases over config keys; one table row per case (sweep.csv)");
+  cmd_sweep->add_option("config", sw.config, "YAML base case (keys: configs/README.md)")->required();
+  cmd_sweep->add_option("--vary", sw.vary,
+                        "KEY=VALUES: a list a,b,c, a range start:stop:count or "
+                        "log:start:stop:count (repeat for more keys)")
+      ->take_all();
+  cmd_sweep->add_option("--design", sw.design, "grid (default), one_at_a_time or latin");
+  cmd_sweep->add_option("--samples", sw.samples, "Samples of a latin design")->check(CLI::Range(1, 100000000));
+  cmd_sweep->add_option("--seed", sw.seed, "Seed of a latin design (default 1)");
+  cmd_sweep->add_option("--cases", sw.cases_file,
+                        "An explicit case table (CSV): one column per key path, one row per case");
+  cmd_sweep->add_option("--threads", sw.threads, "Worker threads (default: the cores available)")
+      ->check(CLI::Range(1, 4096));
+  cmd_sweep->add_option("--shard", sw.shard, "K/N: run only cases K, K+N, K+2N, ... (batch jobs)");
+  cmd_sweep->add_option("-o,--out", sw.out, "Output folder (default: results/<config name>_sweep)");
+  cmd_sweep->add_option("--set", sw.sets, "Override a key of the base case")->take_all();
+  cmd_sweep->add_flag("--keep-cases", sw.keep_cases, "Also write every case's run folder (cases/)");
+  cmd_sweep->add_flag("-q,--quiet", sw.quiet, "Print nothing on success (and no progress)");
+  cmd_sweep->add_flag("--plot,!--no-plot", sw.plot, "Sweep figures with gnuplot (default: on)");
+
+  MergeArgs mg;
+  CLI::App* cmd_merge = app.add_subcommand(
+      "merge", "Join the shard folders of one sweep into the table of an unsharded run");
+  cmd_merge->add_option("shards", mg.shards, "The shard folders (all N of them)")->required()->expected(1, -1);
+  cmd_merge->add_option("-o,--out", mg.out, "Output folder (default: results/merged_sweep)");
+  cmd_merge->add_flag("-q,--quiet", mg.quiet, "Print nothing on success");
+  cmd_merge->add_flag("--plot,!--no-plot", mg.plot, "Sweep figures with gnuplot (default: on)");
 
   ValidateArgs val;
   CLI::App* cmd_val = app.add_subcommand(
@@ -294,6 +377,8 @@ int main(int argc, char** argv) {
   try {
     if (*cmd_run) return run_command(run);
     if (*cmd_cmp) return compare_command(cmp);
+    if (*cmd_sweep) return sweep_command(sw);
+    if (*cmd_merge) return merge_command(mg);
     if (*cmd_val) return validate_command(val);
   } catch (const InputError& e) {
     std::cerr << "flapline: error: " << e.what() << "\n";

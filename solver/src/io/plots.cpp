@@ -60,6 +60,11 @@ bool gnuplot_available() {
 }
 
 std::map<std::string, std::string> render(const Plot& plot, const std::string& stem) {
+  return render(plot, ColourMap{}, stem);
+}
+
+std::map<std::string, std::string> render(const Plot& plot, const ColourMap& map,
+                                          const std::string& stem) {
   TempFolder tmp;
   {
     std::ofstream data(tmp.path / "data.dat");
@@ -73,6 +78,16 @@ std::map<std::string, std::string> render(const Plot& plot, const std::string& s
         data << "\n";
       }
       data << "\n\n";
+    }
+  }
+  const bool is_map = !map.z.empty();
+  if (is_map) {
+    std::ofstream data(tmp.path / "map.dat");
+    data.precision(10);
+    for (std::size_t i = 0; i < map.x.size(); ++i) {
+      for (std::size_t j = 0; j < map.y.size(); ++j)
+        data << map.x[i] << " " << map.y[j] << " " << map.z[i][j] << "\n";
+      data << "\n";
     }
   }
   std::ostringstream gp;
@@ -89,11 +104,23 @@ std::map<std::string, std::string> render(const Plot& plot, const std::string& s
   if (plot.equal_axes)
     gp << "set size ratio -1\nset bmargin 7\nset offsets graph 0.05, graph 0.05, graph 0.08, graph 0.08\n";
   std::ostringstream cmd;
-  cmd << "plot ";
+  if (is_map) {
+    gp << "set view map\nset pm3d map interpolate 0,0\nset palette rgb 33,13,10\n";
+    gp << "set cblabel " << quoted(map.zlabel) << " noenhanced\n";
+    gp << "set xrange [*:*] noextend\nset yrange [*:*] noextend\n";
+    cmd << "splot 'map.dat' using 1:2:3 with pm3d notitle";
+    if (!plot.series.empty()) cmd << ", ";
+  } else {
+    cmd << "plot ";
+  }
   for (std::size_t i = 0; i < plot.series.size(); ++i) {
     const Series& s = plot.series[i];
     if (i) cmd << ", ";
     cmd << "'data.dat' index " << i;
+    if (is_map) {  // points on top of the map (e.g. the cases), at the map's top
+      cmd << " using 1:2:(0) with points pt 7 ps 0.5 lc rgb 'black' title " << quoted(s.title);
+      continue;
+    }
     if (s.style == "vectors")
       cmd << " using 1:2:3:4 with vectors nohead lw 1.5";
     else

@@ -26,6 +26,13 @@ struct Series {
   bool second_axis = false;  ///< plot against the right-hand y axis
 };
 
+/// Values over a rectangular grid, drawn as a colour map (pm3d): z[i][j] at (x[i], y[j]).
+struct ColourMap {
+  std::vector<double> x, y;
+  std::vector<std::vector<double>> z;
+  std::string zlabel;  ///< with unit
+};
+
 /// One figure.
 struct Plot {
   std::string title;
@@ -40,5 +47,9 @@ struct Plot {
 /// Render to "<stem>.png" and "<stem>.svg"; returns {file name: content}. Throws
 /// std::runtime_error with gnuplot's message when it fails.
 std::map<std::string, std::string> render(const Plot& plot, const std::string& stem);
+
+/// The same for a colour map (the plot's series are drawn as points on top of it).
+std::map<std::string, std::string> render(const Plot& plot, const ColourMap& map,
+                                          const std::string& stem);
 
 }  // namespace flapline::io

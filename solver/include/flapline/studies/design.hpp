@@ -12,6 +12,7 @@
 /// the count. Generated numbers are written in shortest round-trip form, so the text a case
 /// carries parses back to exactly the double the design computed.
 
+#include <cstddef>
 #include <cstdint>
 #include <string>
 #include <vector>
@@ -33,6 +34,7 @@ struct Override {
 /// One case of a study: its overrides of the base configuration, in column order.
 struct CaseSpec {
   std::vector<Override> overrides;
+  std::size_t source = 0;  ///< which base configuration (a comparison of several files)
 };
 
 /// The values one key takes.

@@ -1,0 +1,211 @@
+#include "sweep.hpp"
+
+#include <atomic>
+#include <csignal>
+#include <filesystem>
+#include <fstream>
+#include <iostream>
+#include <memory>
+#include <sstream>
+
+#include "cli_common.hpp"
+#include "flapline/common/errors.hpp"
+#include "flapline/io/config.hpp"
+#include "flapline/io/sweep.hpp"
+#include "flapline/io/writers.hpp"
+#include "flapline/studies/runner.hpp"
+#include "flapline/studies/table.hpp"
+#ifdef FLAPLINE_WITH_MPI
+#include "flapline/studies/distributed.hpp"
+#endif
+
+namespace flapline::cli {
+namespace {
+
+namespace fs = std::filesystem;
+
+volatile std::sig_atomic_t g_interrupted = 0;
+extern "C" void on_interrupt(int) { g_interrupted = 1; }
+
+/// SIGINT stops a study between cases (the journal keeps every finished row).
+class InterruptGuard {
+ public:
+  InterruptGuard() { previous_ = std::signal(SIGINT, on_interrupt); }
+  ~InterruptGuard() { std::signal(SIGINT, previous_); }
+
+ private:
+  void (*previous_)(int) = SIG_DFL;
+};
+
+std::string read_text(const std::string& path) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) {
+    InputError e("(file)", "'" + path + "'", "the configuration file could not be opened",
+                 fs::exists(path) ? "check its permissions" : "no such file");
+    e.locate(path, 0);
+    throw e;
+  }
+  std::stringstream ss;
+  ss << in.rdbuf();
+  return ss.str();
+}
+
+/// A builder per worker thread: its own copy of the parsed base configuration.
+studies::CaseBuilderFactory factory_of(const io::CaseLoader& loader) {
+  return [&loader] {
+    auto own = std::make_shared<io::CaseLoader>(loader);
+    return [own](const studies::CaseSpec& c) { return own->build(c); };
+  };
+}
+
+/// A case's own run folder (--keep-cases).
+void keep_case(const fs::path& dir, std::size_t index, const RunSummary& s) {
+  if (!has_results(s.status)) return;
+  io::OutputFolder f(dir / "cases" / ("case_" + std::to_string(index)));
+  f.add("history.csv", io::history_csv(s));
+  f.add("summary.json", io::summary_json(s));
+  f.add("spanwise.csv", io::spanwise_csv(s));
+  f.commit();
+}
+
+}  // namespace
+
+int sweep_command(const SweepArgs& a) {
+  io::SweepDefinition def;
+  def.config_path = a.config;
+  def.config_text = read_text(a.config);
+  def.sets = a.sets;
+  def.vary_specs = a.vary;
+  def.cases_file = a.cases_file;
+  if (!a.cases_file.empty() && !a.vary.empty())
+    throw InputError("--cases", "'" + a.cases_file + "'",
+                     "give either --cases FILE.csv or --vary KEY=VALUES, not both");
+  if (const auto kind = from_string<studies::DesignKind>(a.design);
+      kind && *kind != studies::DesignKind::table)
+    def.design.kind = *kind;
+  else
+    throw InputError("--design", "'" + a.design + "'", "must be one of: grid, one_at_a_time, latin");
+  if (def.design.kind != studies::DesignKind::latin && a.samples > 0)
+    throw InputError("--samples", std::to_string(a.samples), "applies to --design latin only");
+  def.design.samples = a.samples;
+  def.design.seed = a.seed;
+  const io::Shard shard = a.shard.empty() ? io::Shard{} : io::Shard::parse(a.shard);
+  io::complete_definition(def);
+  const fs::path folder_path =
+      a.out.empty() ? fs::path("results") / (fs::path(a.config).stem().string() + "_sweep")
+                    : fs::path(a.out);
+  const io::CaseLoader loader(a.config, a.sets);
+  io::check_sweep_values(def, loader);
+
+  int threads = a.threads > 0 ? a.threads : studies::default_threads();
+#ifdef FLAPLINE_WITH_MPI
+  std::unique_ptr<studies::mpi::Session> session;
+  if (studies::mpi::launched()) {
+    session = std::make_unique<studies::mpi::Session>(nullptr, nullptr);
+    if (a.threads <= 0) threads = std::max(1, studies::default_threads() / session->node_size());
+  }
+  const bool distributed = session && session->size() > 1;
+  const bool leader = !session || session->rank() == 0;
+#else
+  const bool distributed = false, leader = true;
+#endif
+  if (!leader) {  // an MPI worker: run what rank 0 hands out
+#ifdef FLAPLINE_WITH_MPI
+    studies::RunnerOptions options;
+    options.threads = threads;
+    studies::mpi::distribute(
+        *session, def.cases, {}, factory_of(loader), options,
+        [&](std::size_t i, const RunSummary& s) {
+          return studies::table_row(i, def.columns, def.cases[i], s);
+        },
+        [](std::size_t, const std::string&) {});
+#endif
+    return 0;
+  }
+
+  io::SweepFolder folder(folder_path, def, shard);
+  std::vector<std::size_t> todo;
+  std::size_t owned = 0;
+  for (std::size_t i = 0; i < def.cases.size(); ++i) {
+    if (!shard.owns(i)) continue;
+    ++owned;
+    if (!folder.rows().count(i)) todo.push_back(i);
+  }
+  std::size_t failed = 0, finished = owned - todo.size();
+  const std::size_t status_column = 1 + def.columns.size();
+  auto is_failure = [status_column](const std::string& row) {
+    const std::vector<std::string> cells = studies::csv_split(row.substr(0, row.size() - 1));
+    return cells.size() <= status_column || cells[status_column] != "converged";
+  };
+  for (const auto& [i, row] : folder.rows()) failed += is_failure(row) ? 1 : 0;
+  StudyProgress progress(a.quiet, fs::path(a.config).stem().string() + " sweep", owned);
+  auto record = [&](std::size_t index, const std::string& row) {
+    folder.append(index, row);
+    ++finished;
+    if (is_failure(row)) ++failed;
+    progress.update(finished, failed);
+  };
+  studies::RunnerOptions options;
+  options.threads = threads;
+  options.keep_history = a.keep_cases;
+  g_interrupted = 0;
+  {
+    InterruptGuard guard;
+    options.stop = [] { return g_interrupted != 0; };
+    if (distributed) {
+#ifdef FLAPLINE_WITH_MPI
+      studies::mpi::distribute(
+          *session, def.cases, todo, factory_of(loader), options,
+          [&](std::size_t i, const RunSummary& s) {
+            return studies::table_row(i, def.columns, def.cases[i], s);
+          },
+          record);
+#endif
+    } else {
+      studies::run_cases(def.cases, todo, factory_of(loader), options,
+                         [&](std::size_t i, const RunSummary& s) {
+                           if (a.keep_cases) keep_case(folder.dir(), i, s);
+                           record(i, studies::table_row(i, def.columns, def.cases[i], s));
+                         });
+    }
+  }
+  progress.done();
+  if (g_interrupted) {
+    std::cerr << "flapline: sweep interrupted after " << finished << " of " << owned
+              << " cases; run the same command again to resume (journal: "
+              << (folder.dir() / "journal.csv").string() << ")\n";
+    return kExitInterrupted;
+  }
+  std::string plot_note;
+  folder.finish(a.plot, &plot_note);
+  if (!a.quiet) {
+    std::cout << "flapline sweep: " << owned << " cases"
+              << (shard.count > 1 ? " (shard " + a.shard + " of " + std::to_string(def.cases.size()) +
+                                        ")"
+                                  : std::string())
+              << ", " << (owned - failed) << " converged, " << failed
+              << " failed or not converged; " << threads << " thread"
+              << (threads == 1 ? "" : "s") << (distributed ? " per worker rank" : "") << "\n";
+    std::cout << "results: " << folder.dir().string() << "/ (sweep.csv, sweep.json"
+              << (a.plot && plot_note.empty() ? ", figures" : "") << ")\n";
+    if (!plot_note.empty()) std::cout << plot_note << "\n";
+    std::cout << kCautions << "\n";
+  }
+  return failed > 0 ? kExitStudyFailures : 0;
+}
+
+int merge_command(const MergeArgs& a) {
+  std::vector<fs::path> shards(a.shards.begin(), a.shards.end());
+  const fs::path out = a.out.empty() ? fs::path("results") / "merged_sweep" : fs::path(a.out);
+  std::string plot_note;
+  io::merge_sweeps(shards, out, a.plot, &plot_note);
+  if (!a.quiet) {
+    std::cout << "flapline merge: " << shards.size() << " shards -> " << out.string()
+              << "/ (sweep.csv, sweep.json" << (a.plot && plot_note.empty() ? ", figures" : "")
+              << ")\n";
+    if (!plot_note.empty()) std::cout << plot_note << "\n";
+  }
+  return 0;
+}
+
+}  // namespace flapline::cli
