@@ -713,7 +713,7 @@ CaseLoader::~CaseLoader() = default;
 /// The base document with a case's overrides applied.
 static Source case_source(const Source& base, const studies::CaseSpec& c) {
   Source src = base;
-  src.root = YAML::Clone(base.root);
+  src.root.reset(YAML::Clone(base.root));  // rebind: assignment would write into the base
   for (const studies::Override& o : c.overrides) {
     const std::string shown = o.key + "=" + (o.remove ? "~" : o.text);
     apply_override(src.root, o.key, o.text, o.remove, "case (" + shown + ")");
@@ -734,7 +734,7 @@ Model CaseLoader::build(const studies::CaseSpec& c) const {
 
 void CaseLoader::locate(InputError& e, const studies::CaseSpec& c) const {
   Source src = parsed_->base;
-  src.root = YAML::Clone(parsed_->base.root);
+  src.root.reset(YAML::Clone(parsed_->base.root));
   for (const studies::Override& o : c.overrides) {
     try {
       apply_override(src.root, o.key, o.text, o.remove, "case");
