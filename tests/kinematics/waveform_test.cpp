@@ -103,3 +103,48 @@ TEST_CASE("a table whose last value differs from its first is rejected") {
   CHECK_THROWS_WITH_AS(Waveform(make(WaveShape::smoothed_triangle, 0, 1, 0, 1.0), "gait.stroke"),
                        doctest::Contains("gait.stroke.sharpness"), InputError);
 }
+
+TEST_CASE("extremes are exact over the whole cycle, not only at sample points") {
+  // Oracle: brute-force sampling at 2^20 points per cycle (an independent, slow search); the
+  // exact extremes can only lie outside the sampled ones by the sampling's own error.
+  auto brute = [](const Waveform& w) {
+    double lo = 1e300, hi = -1e300;
+    for (int k = 0; k < (1 << 20); ++k) {
+      const double v = w.at(k / double(1 << 20), 1.0).value;
+      lo = std::min(lo, v);
+      hi = std::max(hi, v);
+    }
+    return std::pair<double, double>(lo, hi);
+  };
+  WaveformSpec f;
+  f.shape = WaveShape::fourier;
+  f.mean = 0.2;
+  f.harmonic_amplitudes = {1.0, 0.0, 0.3, 0.05, 0.0, 0.0, 0.02};
+  f.harmonic_phases = {0.1, 0.0, 1.3, -0.4, 0.0, 0.0, 2.0};
+  const Waveform wf(f, "gait.stroke");
+  const auto [flo, fhi] = brute(wf);
+  CHECK(wf.minimum() <= flo);
+  CHECK(wf.maximum() >= fhi);
+  CHECK(wf.minimum() == doctest::Approx(flo).epsilon(1e-9));
+  CHECK(wf.maximum() == doctest::Approx(fhi).epsilon(1e-9));
+
+  WaveformSpec t;
+  t.shape = WaveShape::table;
+  t.table_fraction = {0.0, 0.2, 0.45, 0.7, 1.0};
+  t.table_value = {0.0, 1.0, -0.3, 0.8, 0.0};  // the spline overshoots between the knots
+  const Waveform wt(t, "gait.pitch");
+  const auto [tlo, thi] = brute(wt);
+  CHECK(wt.maximum() > 1.0);
+  CHECK(wt.minimum() == doctest::Approx(tlo).epsilon(1e-9));
+  CHECK(wt.maximum() == doctest::Approx(thi).epsilon(1e-9));
+
+  // analytic: a harmonic's extremes are mean ± |amplitude| whatever its phase, so a span ratio
+  // touching 0 between any two samples is caught.
+  WaveformSpec h;
+  h.mean = 0.5;
+  h.amplitude = -0.5;
+  h.phase = 0.123;
+  const Waveform wh(h, "gait.span_ratio");
+  CHECK(wh.minimum() == 0.0);
+  CHECK(wh.maximum() == 1.0);
+}

@@ -4,9 +4,13 @@
 
 #include <Eigen/LU>
 
+#include <memory>
+
 #include "flapline/aero/lifting_line.hpp"
+#include "flapline/io/config.hpp"
 #include "flapline/samples/samples.hpp"
 #include "flapline/simulation/integrate.hpp"
+#include "flapline/studies/runner.hpp"
 
 namespace {
 
@@ -109,8 +113,42 @@ void lifting_line_cached_derivative(benchmark::State& state) {
   }
 }
 
+// Sweeps (issue: design studies): the hover demo config, every case built from YAML with its
+// override and run to convergence (quasi_steady) or for a fixed-tolerance run from rest (wagner),
+// as `flapline sweep` does; argument = threads.
+void sweep(benchmark::State& state, const char* model, int cases) {
+  const io::CaseLoader loader(std::string(FLAPLINE_SOURCE_DIR) + "/configs/hover_insect.yaml",
+                              {std::string("model.kind=") + model, "wing.strips=20",
+                               "simulation.steps_per_cycle=400", "simulation.samples_per_cycle=100"});
+  studies::Design d;
+  d.keys = {studies::parse_vary("gait.frequency=20:30:" + std::to_string(cases))};
+  const std::vector<studies::CaseSpec> specs = studies::make_cases(d);
+  std::vector<std::size_t> all(specs.size());
+  for (std::size_t i = 0; i < all.size(); ++i) all[i] = i;
+  studies::RunnerOptions options;
+  options.threads = static_cast<int>(state.range(0));
+  long converged = 0;
+  for (auto _ : state) {
+    converged = 0;
+    studies::run_cases(
+        specs, all,
+        [&loader] {
+          auto own = std::make_shared<io::CaseLoader>(loader);
+          return [own](const studies::CaseSpec& c) { return own->build(c); };
+        },
+        options,
+        [&](std::size_t, const RunSummary& r) { converged += r.status == RunStatus::converged; });
+  }
+  state.counters["cases"] = static_cast<double>(cases);
+  state.counters["converged"] = static_cast<double>(converged);
+}
+void sweep_quasi_steady_hover_10000(benchmark::State& state) { sweep(state, "quasi_steady", 10000); }
+void sweep_wagner_hover_1000(benchmark::State& state) { sweep(state, "wagner", 1000); }
+
 }  // namespace
 
+BENCHMARK(sweep_quasi_steady_hover_10000)->Arg(1)->Arg(2)->Iterations(1)->UseRealTime()->Unit(benchmark::kSecond);
+BENCHMARK(sweep_wagner_hover_1000)->Arg(1)->Arg(2)->Iterations(1)->UseRealTime()->Unit(benchmark::kSecond);
 BENCHMARK(lifting_line_hover)->Unit(benchmark::kMillisecond);
 BENCHMARK(lifting_line_forward)->Unit(benchmark::kMillisecond);
 BENCHMARK(lifting_line_assemble_k)->Unit(benchmark::kMicrosecond);

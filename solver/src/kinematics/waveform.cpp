@@ -1,5 +1,7 @@
 #include "flapline/kinematics/waveform.hpp"
 
+#include <array>
+
 #include <Eigen/Dense>
 #include <algorithm>
 #include <cmath>
@@ -101,14 +103,85 @@ Waveform::Waveform(WaveformSpec spec, const std::string& key, double scale)
     max_ = std::max(s.mean, s.mean + s.amplitude);
     return;
   }
+  // Exact extremes over the whole cycle (range checks must hold between samples too).
+  switch (s.shape) {
+    case WaveShape::harmonic:
+    case WaveShape::smoothed_triangle:  // asin(K sinθ)/asin K reaches ±1 exactly at sinθ = ±1
+    case WaveShape::smoothed_square:    // tanh(C sinθ)/tanh C likewise
+      min_ = s.mean - std::abs(s.amplitude);
+      max_ = s.mean + std::abs(s.amplitude);
+      return;
+    case WaveShape::table:
+      table_extremes();
+      return;
+    case WaveShape::fourier:
+      fourier_extremes();
+      return;
+    case WaveShape::step:
+      return;
+  }
+}
+
+void Waveform::table_extremes() {
+  // Each periodic-spline segment is a cubic in B = (v − x_j)/h: its extremes lie at the knots
+  // or where its derivative (a quadratic in B) vanishes inside the segment.
+  const auto& x = spec_.table_fraction;
+  const auto& y = spec_.table_value;
+  min_ = max_ = y.front();
+  for (std::size_t j = 0; j + 1 < x.size(); ++j) {
+    const double h = x[j + 1] - x[j], m0 = spline_second_[j], m1 = spline_second_[j + 1];
+    auto value = [&](double b) {
+      const double a = 1.0 - b;
+      return a * y[j] + b * y[j + 1] + ((a * a * a - a) * m0 + (b * b * b - b) * m1) * h * h / 6;
+    };
+    min_ = std::min(min_, y[j + 1]);
+    max_ = std::max(max_, y[j + 1]);
+    // d/dv = 0:  h(m1 − m0)/2·B² + h·m0·B + (y1 − y0)/h − h(2m0 + m1)/6 = 0
+    const double qa = 0.5 * h * (m1 - m0), qb = h * m0,
+                 qc = (y[j + 1] - y[j]) / h - h * (2 * m0 + m1) / 6;
+    std::array<double, 2> roots{-1.0, -1.0};
+    if (std::abs(qa) < 1e-300) {
+      if (std::abs(qb) > 1e-300) roots[0] = -qc / qb;
+    } else {
+      const double disc = qb * qb - 4 * qa * qc;
+      if (disc >= 0) {
+        const double q = -0.5 * (qb + std::copysign(std::sqrt(disc), qb));
+        roots[0] = q / qa;
+        if (q != 0.0) roots[1] = qc / q;
+      }
+    }
+    for (double b : roots)
+      if (b > 0.0 && b < 1.0) {
+        min_ = std::min(min_, value(b));
+        max_ = std::max(max_, value(b));
+      }
+  }
+}
+
+void Waveform::fourier_extremes() {
+  // Dense sampling (16 points per period of the highest harmonic, at least 64), then each
+  // sign change of the derivative refined by bisection to the extreme between the samples.
+  const int points = std::max<int>(64, 16 * static_cast<int>(spec_.harmonic_amplitudes.size()));
   min_ = max_ = unit_cycle(0.0).value;
-  auto take = [&](double u) {
-    const double v = unit_cycle(u).value;
-    min_ = std::min(min_, v);
-    max_ = std::max(max_, v);
-  };
-  for (int k = 1; k < 2048; ++k) take(k / 2048.0);
-  for (double u : s.table_fraction) take(u);
+  WaveSample prev = unit_cycle(0.0);
+  for (int k = 1; k <= points; ++k) {
+    const double u0 = static_cast<double>(k - 1) / points, u1 = static_cast<double>(k) / points;
+    const WaveSample cur = unit_cycle(u1);
+    min_ = std::min(min_, cur.value);
+    max_ = std::max(max_, cur.value);
+    if ((prev.rate > 0.0) != (cur.rate > 0.0)) {
+      double lo = u0, hi = u1;
+      const bool rising = prev.rate > 0.0;
+      for (int it = 0; it < 60; ++it) {
+        const double mid = 0.5 * (lo + hi);
+        ((unit_cycle(mid).rate > 0.0) == rising ? lo : hi) = mid;
+      }
+      const double v = unit_cycle(0.5 * (lo + hi)).value;
+      min_ = std::min(min_, v);
+      max_ = std::max(max_, v);
+    }
+    prev = cur;
+  }
 }
 
 WaveSample Waveform::unit_cycle(double u) const {

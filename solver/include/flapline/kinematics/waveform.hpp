@@ -64,13 +64,18 @@ class Waveform {
 
   /// Value and derivatives at time t (s) for flapping frequency f (Hz).
   WaveSample at(double t, double frequency) const;
-  /// Smallest and largest value over a cycle (sampled at 2048 points plus the spline nodes).
+  /// Smallest and largest value over a cycle, exact: mean ± |amplitude| for the harmonic and
+  /// both smoothed families, the knots and the derivative's roots of every spline segment for a
+  /// table, and for a Fourier series the sign changes of the derivative on 16 points per period
+  /// of the highest harmonic refined by bisection.
   double minimum() const noexcept { return min_; }
   double maximum() const noexcept { return max_; }
   const WaveformSpec& spec() const noexcept { return spec_; }
 
  private:
   WaveSample unit_cycle(double u) const;  // derivatives with respect to the cycle fraction u
+  void table_extremes();
+  void fourier_extremes();
   WaveformSpec spec_;
   std::vector<double> spline_second_;  // periodic spline second derivatives (table)
   double min_ = 0.0, max_ = 0.0;
