@@ -73,8 +73,7 @@ TEST_CASE("every row of a small grid equals flapline run with the same overrides
             if (ch == '.') ch = '/';
           return p;
         }());
-        REQUIRE(j.contains(ptr));
-        if (j[ptr].is_null()) {
+        if (!j.contains(ptr) || j[ptr].is_null()) {  // e.g. the vehicle's keys of a case without one
           CHECK(rows[r][c].empty());
           continue;
         }
@@ -229,4 +228,68 @@ TEST_CASE("compare runs one config under several override sets") {
   const auto cells = studies::csv_split(lift);
   REQUIRE(cells.size() == 3u);
   CHECK(number(cells[2]) / number(cells[1]) == doctest::Approx(4.0).epsilon(1e-5));  // 6 digits
+}
+
+TEST_CASE("rules between keys are left to the cases; a value's own range is checked up front") {
+  std::string log;
+  const std::string hover = config("hover_insect.yaml") + " --set wing.strips=6";
+  // r̂₂ must exceed r̂₁: (0.5, 0.5) is refused per case, (0.45, 0.5) and (0.5, 0.55) run.
+  const fs::path grid = test::fresh_folder("sweep_between");
+  CHECK(sweep(hover + " --vary wing.first_moment_radius=0.45,0.5"
+                      " --vary wing.second_moment_radius=0.5,0.55 -o \"" + grid.string() + "\"",
+              log) == 5);
+  const auto rows = table(grid / "sweep.csv");
+  REQUIRE(rows.size() == 5u);
+  CHECK(rows[1][3] == "converged");
+  CHECK(rows[3][3] == "input_error");
+  CHECK(rows[4][3] == "converged");
+  // A case table that switches the planform and brings its own keys.
+  const fs::path t = test::fresh_folder("sweep_planforms");
+  fs::create_directories(t);
+  std::ofstream(t / "cases.csv")
+      << "wing.planform,wing.mean_chord,wing.first_moment_radius,wing.second_moment_radius,"
+         "wing.root_chord\n,,,,\nelliptic,~,~,~,0.02\n";
+  CHECK(sweep(hover + " --cases \"" + (t / "cases.csv").string() + "\" -o \"" +
+                  (t / "out").string() + "\"",
+              log) == 0);
+  // The last point of a range is its stop, exactly (1 is the pitch axis' upper bound).
+  const fs::path edge = test::fresh_folder("sweep_edge");
+  CHECK(sweep(hover + " --vary wing.pitch_axis=0.2:1:4 -o \"" + edge.string() + "\"", log) != 2);
+  CHECK(table(edge / "sweep.csv")[4][1] == "1");
+  // A trailing dot, an element of a list that is not there, and a key varied twice are refused.
+  const fs::path bad = test::fresh_folder("sweep_keys");
+  for (const char* v : {" --vary gait.frequency.=20,25", " --vary flight.velocity.0=0,1",
+                        " --vary gait.stroke=10,20 --vary gait.stroke.amplitude=50,60"}) {
+    CAPTURE(v);
+    CHECK(sweep(hover + v + " -o \"" + bad.string() + "\"", log) == 2);
+    CHECK_FALSE(fs::exists(bad));
+  }
+}
+
+TEST_CASE("rows do not depend on how the config's path is spelled; merge never overwrites a shard") {
+  const fs::path dir = test::fresh_folder("sweep_paths");
+  fs::create_directories(dir);
+  fs::copy_file(test::source_path("configs/hover_insect.yaml"), dir / "h.yaml");
+  std::ofstream(dir / "pl.csv") << "wing.second_moment_radius\n0.55\n0.4\n";  // 0.4 < r̂₁: refused
+  std::string log;
+  CHECK(sweep("\"" + (dir / "h.yaml").string() + "\" --cases \"" + (dir / "pl.csv").string() +
+                  "\" -o \"" + (dir / "a").string() + "\"",
+              log) == 5);
+  CHECK(sweep("\"" + (dir / "." / "h.yaml").string() + "\" --cases \"" +
+                  (dir / "pl.csv").string() + "\" -o \"" + (dir / "b").string() + "\"",
+              log) == 5);
+  CHECK(slurp(dir / "a" / "sweep.csv") == slurp(dir / "b" / "sweep.csv"));
+  const auto rows = table(dir / "a" / "sweep.csv");
+  CHECK(rows[2][3].find("case wing.second_moment_radius=0.4") != std::string::npos);
+  CHECK(rows[2][3].find(dir.string()) == std::string::npos);
+  // Merging into a shard folder is refused.
+  const fs::path s0 = dir / "s0", s1 = dir / "s1";
+  const std::string base = config("hover_insect.yaml") + " --set wing.strips=6 --vary gait.frequency=20,25";
+  REQUIRE(sweep(base + " --shard 0/2 -o \"" + s0.string() + "\"", log) == 0);
+  REQUIRE(sweep(base + " --shard 1/2 -o \"" + s1.string() + "\"", log) == 0);
+  const std::string before = slurp(s0 / "sweep.csv");
+  CHECK(test::run_cli("merge \"" + s0.string() + "\" \"" + s1.string() + "\" -o \"" + s0.string() +
+                          "\" --no-plot -q",
+                      log) == 2);
+  CHECK(slurp(s0 / "sweep.csv") == before);
 }

@@ -56,9 +56,10 @@ class Progress {
 /// Progress of a study on a terminal: cases done / total, failures, elapsed and remaining time.
 class StudyProgress {
  public:
-  StudyProgress(bool quiet, std::string label, std::size_t total)
+  /// `resumed`: cases already done before this process started (not timed here).
+  StudyProgress(bool quiet, std::string label, std::size_t total, std::size_t resumed = 0)
       : enabled_(!quiet && ::isatty(STDERR_FILENO)), label_(std::move(label)), total_(total),
-        start_(std::chrono::steady_clock::now()) {}
+        resumed_(resumed), start_(std::chrono::steady_clock::now()) {}
   ~StudyProgress() { done(); }
   void update(std::size_t finished, std::size_t failed) {
     if (!enabled_) return;
@@ -66,12 +67,13 @@ class StudyProgress {
     if (finished < total_ && now - last_ < std::chrono::milliseconds(200)) return;
     last_ = now;
     const double elapsed = std::chrono::duration<double>(now - start_).count();
-    const double left = finished > 0 ? elapsed * static_cast<double>(total_ - finished) /
-                                           static_cast<double>(finished)
-                                     : 0.0;
+    const std::size_t here = finished > resumed_ ? finished - resumed_ : 0;
+    const double left = here > 0 ? elapsed * static_cast<double>(total_ - finished) /
+                                       static_cast<double>(here)
+                                 : 0.0;
     std::fprintf(stderr, "\r%s: %zu / %zu cases, %zu failed, %s elapsed, %s left   ",
                  label_.c_str(), finished, total_, failed, clock(elapsed).c_str(),
-                 finished > 0 ? clock(left).c_str() : "--:--");
+                 here > 0 ? clock(left).c_str() : "--:--");
     shown_ = true;
   }
   void done() {
@@ -91,7 +93,7 @@ class StudyProgress {
   }
   bool enabled_;
   std::string label_;
-  std::size_t total_;
+  std::size_t total_, resumed_;
   std::chrono::steady_clock::time_point start_, last_{};
   bool shown_ = false;
 };

@@ -1,6 +1,7 @@
 // flapline command-line tool: a thin shell over flapline::core, flapline::io and the validation
 // runner. Exit status: 0 success, 1 output could not be written, 2 bad input (config, options),
-// 3 numerical failure during a run, 4 a validation check failed.
+// 3 numerical failure during a run, 4 a validation check failed, 5 a study finished with failed
+// or unconverged cases, 130 a study was interrupted (Ctrl-C; rerun to resume).
 #include <unistd.h>
 
 #include <CLI/CLI.hpp>
@@ -338,7 +339,8 @@ int main(int argc, char** argv) {
       ->take_all();
   cmd_sweep->add_option("--design", sw.design, "grid (default), one_at_a_time or latin");
   cmd_sweep->add_option("--samples", sw.samples, "Samples of a latin design")->check(CLI::Range(1, 100000000));
-  cmd_sweep->add_option("--seed", sw.seed, "Seed of a latin design (default 1)");
+  cmd_sweep->add_option("--seed", sw.seed, "Seed of a latin design (default 1)")
+      ->check(CLI::Range(std::uint64_t{0}, std::uint64_t{9007199254740992ull}));
   cmd_sweep->add_option("--cases", sw.cases_file,
                         "An explicit case table (CSV): one column per key path, one row per case");
   cmd_sweep->add_option("--threads", sw.threads, "Worker threads (default: the cores available)")
@@ -377,7 +379,11 @@ int main(int argc, char** argv) {
   try {
     if (*cmd_run) return run_command(run);
     if (*cmd_cmp) return compare_command(cmp);
-    if (*cmd_sweep) return sweep_command(sw);
+    if (*cmd_sweep) {
+      sw.design_given = cmd_sweep->count("--design") > 0;
+      sw.seed_given = cmd_sweep->count("--seed") > 0;
+      return sweep_command(sw);
+    }
     if (*cmd_merge) return merge_command(mg);
     if (*cmd_val) return validate_command(val);
   } catch (const InputError& e) {

@@ -25,7 +25,11 @@ namespace {
 namespace fs = std::filesystem;
 
 volatile std::sig_atomic_t g_interrupted = 0;
-extern "C" void on_interrupt(int) { g_interrupted = 1; }
+/// The first Ctrl-C stops the study between cases; a second one ends the process at once.
+extern "C" void on_interrupt(int) {
+  g_interrupted = 1;
+  std::signal(SIGINT, SIG_DFL);
+}
 
 /// SIGINT stops a study between cases (the journal keeps every finished row).
 class InterruptGuard {
@@ -68,6 +72,10 @@ void keep_case(const fs::path& dir, std::size_t index, const RunSummary& s) {
   f.commit();
 }
 
+int lead_sweep(const SweepArgs& a, const io::SweepDefinition& def, const io::Shard& shard,
+               const fs::path& folder_path, const io::CaseLoader& loader, int threads,
+               void* mpi_session);
+
 }  // namespace
 
 int sweep_command(const SweepArgs& a) {
@@ -80,6 +88,11 @@ int sweep_command(const SweepArgs& a) {
   if (!a.cases_file.empty() && !a.vary.empty())
     throw InputError("--cases", "'" + a.cases_file + "'",
                      "give either --cases FILE.csv or --vary KEY=VALUES, not both");
+  if (!a.cases_file.empty() && (a.design_given || a.samples > 0 || a.seed_given))
+    throw InputError("--cases", "'" + a.cases_file + "'",
+                     "a case table is its own design: --design, --samples and --seed do not apply");
+  if (a.seed_given && a.design != "latin")
+    throw InputError("--seed", std::to_string(a.seed), "applies to --design latin only");
   if (const auto kind = from_string<studies::DesignKind>(a.design);
       kind && *kind != studies::DesignKind::table)
     def.design.kind = *kind;
@@ -94,7 +107,7 @@ int sweep_command(const SweepArgs& a) {
   const fs::path folder_path =
       a.out.empty() ? fs::path("results") / (fs::path(a.config).stem().string() + "_sweep")
                     : fs::path(a.out);
-  const io::CaseLoader loader(a.config, a.sets);
+  const io::CaseLoader loader(a.config, a.sets, fs::path(a.config).filename().string());
   io::check_sweep_values(def, loader);
 
   int threads = a.threads > 0 ? a.threads : studies::default_threads();
@@ -106,8 +119,11 @@ int sweep_command(const SweepArgs& a) {
   }
   const bool distributed = session && session->size() > 1;
   const bool leader = !session || session->rank() == 0;
+  if (distributed && a.keep_cases)
+    throw InputError("--keep-cases", "(under MPI)",
+                     "writes case folders on one machine only: run without mpirun, or drop it");
 #else
-  const bool distributed = false, leader = true;
+  const bool leader = true;
 #endif
   if (!leader) {  // an MPI worker: run what rank 0 hands out
 #ifdef FLAPLINE_WITH_MPI
@@ -123,6 +139,29 @@ int sweep_command(const SweepArgs& a) {
     return 0;
   }
 
+#ifdef FLAPLINE_WITH_MPI
+  if (distributed) {
+    // A failure on rank 0 must end the workers too (they wait for cases).
+    try {
+      return lead_sweep(a, def, shard, folder_path, loader, threads, session.get());
+    } catch (const InputError& e) {
+      std::cerr << "flapline: error: " << e.what() << "\n";
+      session->abort(kExitInput);
+    } catch (const std::exception& e) {
+      std::cerr << "flapline: " << e.what() << "\n";
+      session->abort(kExitWrite);
+    }
+  }
+#endif
+  return lead_sweep(a, def, shard, folder_path, loader, threads, nullptr);
+}
+
+namespace {
+
+int lead_sweep(const SweepArgs& a, const io::SweepDefinition& def, const io::Shard& shard,
+               const fs::path& folder_path, const io::CaseLoader& loader, int threads,
+               void* mpi_session) {
+  const bool distributed = mpi_session != nullptr;
   io::SweepFolder folder(folder_path, def, shard);
   std::vector<std::size_t> todo;
   std::size_t owned = 0;
@@ -132,13 +171,14 @@ int sweep_command(const SweepArgs& a) {
     if (!folder.rows().count(i)) todo.push_back(i);
   }
   std::size_t failed = 0, finished = owned - todo.size();
+  const std::size_t resumed = finished;
   const std::size_t status_column = 1 + def.columns.size();
   auto is_failure = [status_column](const std::string& row) {
     const std::vector<std::string> cells = studies::csv_split(row.substr(0, row.size() - 1));
     return cells.size() <= status_column || cells[status_column] != "converged";
   };
   for (const auto& [i, row] : folder.rows()) failed += is_failure(row) ? 1 : 0;
-  StudyProgress progress(a.quiet, fs::path(a.config).stem().string() + " sweep", owned);
+  StudyProgress progress(a.quiet, fs::path(a.config).stem().string() + " sweep", owned, resumed);
   auto record = [&](std::size_t index, const std::string& row) {
     folder.append(index, row);
     ++finished;
@@ -155,7 +195,8 @@ int sweep_command(const SweepArgs& a) {
     if (distributed) {
 #ifdef FLAPLINE_WITH_MPI
       studies::mpi::distribute(
-          *session, def.cases, todo, factory_of(loader), options,
+          *static_cast<studies::mpi::Session*>(mpi_session), def.cases, todo, factory_of(loader),
+          options,
           [&](std::size_t i, const RunSummary& s) {
             return studies::table_row(i, def.columns, def.cases[i], s);
           },
@@ -193,6 +234,8 @@ int sweep_command(const SweepArgs& a) {
   }
   return failed > 0 ? kExitStudyFailures : 0;
 }
+
+}  // namespace
 
 int merge_command(const MergeArgs& a) {
   std::vector<fs::path> shards(a.shards.begin(), a.shards.end());

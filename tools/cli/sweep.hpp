@@ -12,6 +12,7 @@ struct SweepArgs {
   int samples = 0, threads = 0;
   std::uint64_t seed = 1;
   bool quiet = false, plot = true, keep_cases = false;
+  bool design_given = false, seed_given = false;  ///< typed on the command line
 };
 int sweep_command(const SweepArgs& args);
 

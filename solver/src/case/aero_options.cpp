@@ -55,7 +55,8 @@ void validate(const AeroOptions& o) {
   if (o.vortex_lift > 0.0 && o.suction_recovery > 0.0)
     throw InputError("model.vortex_lift", format_number(o.vortex_lift),
                      "must be 0 unless model.suction_recovery is 0",
-                     "vortex lift replaces the leading-edge suction of a separated leading edge");
+                     "vortex lift replaces the leading-edge suction of a separated leading edge")
+        .between_keys();
   const double c[] = {o.fit.lift_offset, o.fit.lift_amplitude, o.fit.lift_rate, o.fit.lift_shift,
                       o.fit.drag_offset, o.fit.drag_amplitude, o.fit.drag_rate, o.fit.drag_shift};
   for (double v : c)
@@ -64,7 +65,8 @@ void validate(const AeroOptions& o) {
   if ((o.vortex_lift > 0.0 || o.suction_recovery != 1.0) && o.law == CoefficientLaw::revolving_fit)
     throw InputError("model.suction_recovery", format_number(o.suction_recovery),
                      "applies to the thin_airfoil law only; leave it at 1 with revolving_fit",
-                     "the fit already holds what the experiment measured");
+                     "the fit already holds what the experiment measured")
+        .between_keys();
 }
 
 }  // namespace flapline

@@ -40,13 +40,46 @@ void check_span_ratio(const WingMotion& m) {
     throw InputError(key,
                      "from " + format_number(m.span_ratio.minimum()) + " to " +
                          format_number(m.span_ratio.maximum()),
-                     "must stay within (0, 1] over the whole cycle");
+                     "must stay within (0, 1] over the whole cycle")
+        .between_keys();
+}
+
+/// Validate the vehicle and derive the body's velocity and rates from a flight condition.
+ModelSpec resolved(ModelSpec s) {
+  if (s.vehicle) validate(*s.vehicle);
+  if (s.condition) {
+    const FlightCondition& c = *s.condition;
+    if (!s.vehicle)
+      throw InputError("flight.airspeed", format_number(c.airspeed),
+                       "a flight condition needs the vehicle section (its attitude sets the angle "
+                       "of attack)")
+          .between_keys();
+    if (!(c.airspeed >= 0.0 && c.airspeed <= 1000.0))
+      throw InputError("flight.airspeed", format_number(c.airspeed), "must lie in [0, 1000] (m/s)");
+    if (!(std::abs(c.flight_path_angle) <= 0.5 * kPi + 1e-12))
+      throw InputError("flight.flight_path_angle", format_number(c.flight_path_angle / kDegree),
+                       "must lie in [-90, 90] (deg)");
+    if (!(std::abs(c.sideslip) <= 0.5 * kPi + 1e-12))
+      throw InputError("flight.sideslip", format_number(c.sideslip / kDegree),
+                       "must lie in [-90, 90] (deg)");
+    if (!(std::abs(c.turn_rate) <= 100.0 * 2 * kPi))
+      throw InputError("flight.turn_rate", format_number(c.turn_rate / kDegree),
+                       "must lie within ±36000 (deg/s)");
+    // The air-relative velocity is V_B; the ground-frame velocity adds the wind.
+    s.flight.velocity = air_velocity_body(c, s.vehicle->pitch) + s.flight.wind;
+    s.flight.rates = turn_rates_body(c.turn_rate, s.vehicle->roll, s.vehicle->pitch);
+  }
+  s.flight.velocity += s.flight.velocity_offset;
+  s.flight.rates += s.flight.rates_offset;
+  s.flight.velocity_offset.setZero();
+  s.flight.rates_offset.setZero();
+  return s;
 }
 
 }  // namespace
 
 Model::Model(ModelSpec spec)
-    : spec_(std::move(spec)),
+    : spec_(resolved(std::move(spec))),
       planform_(spec_.wing),
       strips_(cut_into_strips(planform_, spec_.strips)),
       air_(resolve_air(spec_.air)),

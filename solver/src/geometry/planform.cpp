@@ -59,7 +59,8 @@ Planform::Planform(PlanformSpec spec) : spec_(std::move(spec)) {
         throw InputError("wing.second_moment_radius", format_number(r2),
                          "must lie in (" + format_number(r1) + ", " + format_number(r2max) +
                              "] for first_moment_radius " + format_number(r1),
-                         "larger values give an infinite chord at the root or tip");
+                         "larger values give an infinite chord at the root or tip")
+            .between_keys();
       const double nu = r1 * (1.0 - r1) / (r2 * r2 - r1 * r1) - 1.0;
       p_ = r1 * nu;
       q_ = (1.0 - r1) * nu;

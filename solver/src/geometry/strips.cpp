@@ -39,7 +39,8 @@ Strips cut_into_strips(const Planform& planform, const StripSpec& spec) {
     if (!(s.chord(i) > 0.0))
       throw InputError("wing.strips", std::to_string(n),
                        "strip " + std::to_string(i + 1) + " has zero chord at its centre",
-                       "the planform's chord must be positive inside the span");
+                       "the planform's chord must be positive inside the span")
+          .between_keys();
   return s;
 }
 

@@ -108,13 +108,14 @@ class Reader {
       fail("(document)", nullptr, "(empty)", "the file holds no settings; see configs/README.md");
     if (!root.IsMap())
       fail("(document)", &root, describe(root), "the top level must be a map of sections");
-    check_keys(root, "",
-               {"title", "description", "wing", "gait", "flight", "air", "model", "simulation"});
+    check_keys(root, "", {"title", "description", "wing", "gait", "flight", "air", "model",
+                          "simulation", "vehicle"});
     ModelSpec spec;
     if (has(root, "title")) spec.title = text(root["title"], "title");
     read_wing(required(root, "", "wing"), spec);
     read_gait(required(root, "", "gait"), spec.gait);
-    if (has(root, "flight")) read_flight(map_at(root, "", "flight"), spec.flight);
+    if (has(root, "vehicle")) read_vehicle(map_at(root, "", "vehicle"), spec);
+    if (has(root, "flight")) read_flight(map_at(root, "", "flight"), spec);
     if (has(root, "air")) read_air(map_at(root, "", "air"), spec.air);
     if (has(root, "model")) read_model(map_at(root, "", "model"), spec.aero);
     if (has(root, "simulation")) read_simulation(map_at(root, "", "simulation"), spec.simulation);
@@ -127,6 +128,15 @@ class Reader {
   [[noreturn]] void fail(const std::string& path, const YAML::Node* at, const std::string& value,
                          const std::string& allowed, const std::string& hint = {}) const {
     InputError e(path, value, allowed, hint);
+    src_.locate(e, at);
+    throw e;
+  }
+
+  /// The same for a rule between keys (see InputError::between_keys).
+  [[noreturn]] void fail_between(const std::string& path, const YAML::Node* at,
+                                 const std::string& value, const std::string& allowed) const {
+    InputError e(path, value, allowed);
+    e.between_keys();
     src_.locate(e, at);
     throw e;
   }
@@ -226,12 +236,12 @@ class Reader {
                           (p.shape == PlanformShape::table && (k == "table" || k == "table_file"));
       if (has(w, k.c_str()) && !wanted) {
         const YAML::Node v = w[k];
-        fail(P + "." + k, &v, describe(v), "does not apply to planform " + shape_name);
+        fail_between(P + "." + k, &v, describe(v), "does not apply to planform " + shape_name);
       }
     }
     for (const auto& k : need)
       if (!has(w, k.c_str()))
-        fail(P + "." + k, &w, "(missing)", "required for planform " + shape_name);
+        fail_between(P + "." + k, &w, "(missing)", "required for planform " + shape_name);
     if (!has(w, "span")) fail(P + ".span", &w, "(missing)", "this key is required (m, > 0)");
     p.span = number(w["span"], P + ".span");
     if (has(w, "chord")) p.chord = number(w["chord"], P + ".chord");
@@ -244,16 +254,17 @@ class Reader {
       p.second_moment_radius = number(w["second_moment_radius"], P + ".second_moment_radius");
     if (p.shape == PlanformShape::table) {
       if (has(w, "table") == has(w, "table_file"))
-        fail(P + ".table_file", &w, "", "planform table needs exactly one of wing.table (inline "
-             "rows) or wing.table_file (CSV)");
+        fail_between(P + ".table_file", &w, "", "planform table needs exactly one of wing.table "
+                     "(inline rows) or wing.table_file (CSV)");
       if (has(w, "table"))
         read_inline_table(w["table"], P + ".table", p);
       else
         read_table_file(w["table_file"], P + ".table_file", p);
       const YAML::Node pa = w["pitch_axis"];
       if (pa.IsDefined())
-        fail(P + ".pitch_axis", &pa, describe(pa),
-             "does not apply to planform table (its leading_edge column places the pitch axis)");
+        fail_between(P + ".pitch_axis", &pa, describe(pa),
+                     "does not apply to planform table (its leading_edge column places the pitch "
+                     "axis)");
     } else if (has(w, "pitch_axis")) {
       p.pitch_axis = number(w["pitch_axis"], P + ".pitch_axis");
     }
@@ -377,8 +388,8 @@ class Reader {
     if (replace && !over.IsMap()) return scalar_case(over, over_path);
     if (!replace && base.IsDefined() && !base.IsMap()) {
       if (over.IsDefined())
-        fail(over_path, &over, describe(over),
-             "overrides a constant shared value: give a number or a map with a shape");
+        fail_between(over_path, &over, describe(over),
+                     "overrides a constant shared value: give a number or a map with a shape");
       return scalar_case(base, shared_path);
     }
     if (primary) check_keys(*primary, primary_path, keys);
@@ -410,7 +421,7 @@ class Reader {
     for (const auto& k : keys) {
       const YAML::Node v = pick(k.c_str(), path);
       if (v.IsDefined() && std::find(ok.begin(), ok.end(), k) == ok.end())
-        fail(path, &v, describe(v), "does not apply to shape " + shape_name);
+        fail_between(path, &v, describe(v), "does not apply to shape " + shape_name);
     }
     if (const YAML::Node n = pick("mean", path); n.IsDefined()) w.mean = number(n, path) * scale;
     if (const YAML::Node n = pick("amplitude", path); n.IsDefined())
@@ -419,7 +430,7 @@ class Reader {
     if (const YAML::Node n = pick("delay", path); n.IsDefined()) w.delay = number(n, path);
     if (w.shape == WaveShape::smoothed_triangle || w.shape == WaveShape::smoothed_square) {
       const YAML::Node n = pick("sharpness", path);
-      if (!n.IsDefined()) fail(path, primary, "(missing)", "required for shape " + shape_name);
+      if (!n.IsDefined()) fail_between(path, primary, "(missing)", "required for shape " + shape_name);
       w.sharpness = number(n, path);
     }
     if (w.shape == WaveShape::fourier) {
@@ -450,11 +461,66 @@ class Reader {
   }
 
   // --- other sections --------------------------------------------------------------------------
-  void read_flight(const YAML::Node& f, FlightSpec& flight) const {
-    check_keys(f, "flight", {"velocity", "rates", "wind"});
+  void read_flight(const YAML::Node& f, ModelSpec& spec) const {
+    FlightSpec& flight = spec.flight;
+    check_keys(f, "flight", {"velocity", "rates", "wind", "airspeed", "flight_path_angle",
+                             "sideslip", "turn_rate"});
     if (has(f, "velocity")) flight.velocity = vec3(f["velocity"], "flight.velocity");
     if (has(f, "rates")) flight.rates = vec3(f["rates"], "flight.rates", kDegree);
     if (has(f, "wind")) flight.wind = vec3(f["wind"], "flight.wind");
+    const bool condition = has(f, "airspeed") || has(f, "flight_path_angle") ||
+                           has(f, "sideslip") || has(f, "turn_rate");
+    if (!condition) return;
+    if (!has(f, "airspeed")) {
+      const char* given = has(f, "flight_path_angle") ? "flight_path_angle"
+                          : has(f, "sideslip")        ? "sideslip"
+                                                      : "turn_rate";
+      const YAML::Node n = f[given];
+      fail_between(std::string("flight.") + given, &n, describe(n),
+                   "belongs to a flight condition: give flight.airspeed too (m/s)");
+    }
+    for (const char* derived : {"velocity", "rates"}) {
+      if (!has(f, derived)) continue;
+      const YAML::Node n = f[derived];
+      fail_between(std::string("flight.") + derived, &n, describe(n),
+                   "is derived from the flight condition (airspeed, flight_path_angle, sideslip, "
+                   "turn_rate) and the vehicle's attitude; give one or the other");
+    }
+    FlightCondition c;
+    c.airspeed = number(f["airspeed"], "flight.airspeed");
+    if (has(f, "flight_path_angle"))
+      c.flight_path_angle = number(f["flight_path_angle"], "flight.flight_path_angle") * kDegree;
+    if (has(f, "sideslip")) c.sideslip = number(f["sideslip"], "flight.sideslip") * kDegree;
+    if (has(f, "turn_rate")) c.turn_rate = number(f["turn_rate"], "flight.turn_rate") * kDegree;
+    spec.condition = c;
+  }
+
+  void read_vehicle(const YAML::Node& v, ModelSpec& spec) const {
+    const std::string P = "vehicle";
+    check_keys(v, P, {"mass", "inertia", "drag_area", "attitude"});
+    VehicleSpec out;
+    if (!has(v, "mass")) fail(P + ".mass", &v, "(missing)", "this key is required (kg, > 0)");
+    out.mass = number(v["mass"], P + ".mass");
+    if (!has(v, "inertia"))
+      fail(P + ".inertia", &v, "(missing)",
+           "this key is required: {xx, yy, zz, xz} about the centre of mass (kg m^2)");
+    const YAML::Node in = map_at(v, P, "inertia");
+    check_keys(in, P + ".inertia", {"xx", "yy", "zz", "xz"});
+    for (const auto& [key, target] : {std::pair<const char*, double*>{"xx", &out.ixx},
+                                      {"yy", &out.iyy}, {"zz", &out.izz}})
+      if (!has(in, key))
+        fail(P + ".inertia." + key, &in, "(missing)", "required (kg m^2, > 0)");
+      else
+        *target = number(in[key], P + ".inertia." + key);
+    if (has(in, "xz")) out.ixz = number(in["xz"], P + ".inertia.xz");
+    if (has(v, "drag_area")) out.drag_area = number(v["drag_area"], P + ".drag_area");
+    if (has(v, "attitude")) {
+      const YAML::Node a = map_at(v, P, "attitude");
+      check_keys(a, P + ".attitude", {"roll", "pitch"});
+      if (has(a, "roll")) out.roll = number(a["roll"], P + ".attitude.roll") * kDegree;
+      if (has(a, "pitch")) out.pitch = number(a["pitch"], P + ".attitude.pitch") * kDegree;
+    }
+    spec.vehicle = out;
   }
 
   void read_air(const YAML::Node& a, AirSpec& air) const {
@@ -552,11 +618,12 @@ void apply_override(YAML::Node& root, const std::string& path, const std::string
   std::vector<std::string> parts;
   std::stringstream ss(path);
   for (std::string part; std::getline(ss, part, '.');) parts.push_back(part);
-  if (parts.empty() || std::any_of(parts.begin(), parts.end(),
-                                   [](const std::string& p) { return p.empty(); }))
+  if (parts.empty() || path.back() == '.' ||
+      std::any_of(parts.begin(), parts.end(), [](const std::string& p) { return p.empty(); }))
     fail("the key path must be names joined by dots, e.g. gait.stroke.amplitude");
+  // A list index: a whole number without leading zeros (one spelling per element).
   auto list_index = [](const std::string& part) -> long {
-    if (part.empty() || part.size() > 6 ||
+    if (part.empty() || part.size() > 6 || (part.size() > 1 && part[0] == '0') ||
         !std::all_of(part.begin(), part.end(), [](char ch) { return ch >= '0' && ch <= '9'; }))
       return -1;
     return std::stol(part);
@@ -567,8 +634,9 @@ void apply_override(YAML::Node& root, const std::string& path, const std::string
     if (cur.IsSequence()) {
       const long k = list_index(parts[i]);
       if (k < 0 || static_cast<std::size_t>(k) >= cur.size())
-        fail("'" + parts[i] + "' must index the list (0 to " + std::to_string(cur.size() - 1) +
-             ")");
+        fail(cur.size() == 0 ? "'" + parts[i] + "' indexes an empty list"
+                             : "'" + parts[i] + "' must index the list (0 to " +
+                                   std::to_string(cur.size() - 1) + ")");
       if (last) {
         if (remove) fail("a list element cannot be removed; set the whole list instead");
         cur[static_cast<std::size_t>(k)] = value;
@@ -589,6 +657,10 @@ void apply_override(YAML::Node& root, const std::string& path, const std::string
     YAML::Node next = cur[parts[i]];
     if (!next.IsDefined() || next.IsNull()) {
       if (remove) return;  // nothing to remove
+      if (list_index(parts[i + 1]) >= 0)  // an element of a list that is not there
+        fail("there is no list at '" + path.substr(0, path.rfind('.')) +
+             "' to index; set the whole list, e.g. " + path.substr(0, path.rfind('.')) +
+             "=[0, 0, 0]");
       cur[parts[i]] = YAML::Node(YAML::NodeType::Map);
       next = cur[parts[i]];
     }
@@ -626,8 +698,7 @@ Model build(const Source& src, ModelSpec spec) {
   try {
     return Model(std::move(spec));
   } catch (InputError& e) {
-    const std::string key = written_key(src, e.key());
-    InputError located(key, e.value(), e.allowed(), e.hint());
+    InputError located = e.rekeyed(written_key(src, e.key()));
     src.locate(located);
     throw located;
   }
@@ -665,7 +736,7 @@ void locate_in_config(InputError& error, const std::string& path,
                       const std::vector<std::string>& overrides) {
   try {
     const Source src = parse(read_file(path), path, folder_of(path), overrides);
-    InputError located(written_key(src, error.key()), error.value(), error.allowed(), error.hint());
+    InputError located = error.rekeyed(written_key(src, error.key()));
     src.locate(located);
     error = located;
   } catch (const InputError&) {
@@ -695,8 +766,10 @@ struct CaseLoader::Parsed {
   Source base;
 };
 
-CaseLoader::CaseLoader(const std::string& path, const std::vector<std::string>& sets)
-    : CaseLoader(read_file(path), path, folder_of(path), sets) {}
+CaseLoader::CaseLoader(const std::string& path, const std::vector<std::string>& sets,
+                       const std::string& display_name)
+    : CaseLoader(read_file(path), display_name.empty() ? path : display_name, folder_of(path),
+                 sets) {}
 
 CaseLoader::CaseLoader(std::string text, std::string name, std::string base_dir,
                        std::vector<std::string> sets)
@@ -710,10 +783,11 @@ CaseLoader::CaseLoader(const CaseLoader& other)
 
 CaseLoader::~CaseLoader() = default;
 
-/// The base document with a case's overrides applied.
-static Source case_source(const Source& base, const studies::CaseSpec& c) {
+/// The base document with a case's overrides applied: on a clone of the base (fast; the clone
+/// has no line marks), or on the base itself when it is a fresh parse of its own.
+static Source case_source(const Source& base, const studies::CaseSpec& c, bool clone = true) {
   Source src = base;
-  src.root.reset(YAML::Clone(base.root));  // rebind: assignment would write into the base
+  if (clone) src.root.reset(YAML::Clone(base.root));  // rebind: assignment would write into the base
   for (const studies::Override& o : c.overrides) {
     const std::string shown = o.key + "=" + (o.remove ? "~" : o.text);
     apply_override(src.root, o.key, o.text, o.remove, "case (" + shown + ")");
@@ -722,14 +796,93 @@ static Source case_source(const Source& base, const studies::CaseSpec& c) {
   return src;
 }
 
+namespace {
+void add_offsets(ModelSpec& s, const studies::CaseSpec& c) {
+  for (int i = 0; i < 3; ++i) {
+    s.flight.velocity_offset(i) = c.velocity_offset[static_cast<std::size_t>(i)];
+    s.flight.rates_offset(i) = c.rates_offset[static_cast<std::size_t>(i)];
+  }
+}
+}  // namespace
+
 ModelSpec CaseLoader::spec(const studies::CaseSpec& c) const {
-  const Source src = case_source(parsed_->base, c);
-  return Reader(src).read();
+  try {
+    const Source src = case_source(parsed_->base, c);
+    ModelSpec s = Reader(src).read();
+    add_offsets(s, c);
+    return s;
+  } catch (const InputError&) {  // again on a fresh parse, whose nodes know their lines
+    const Source src = case_source(parse(text_, name_, base_dir_, sets_), c, false);
+    ModelSpec s = Reader(src).read();
+    add_offsets(s, c);
+    return s;
+  }
 }
 
 Model CaseLoader::build(const studies::CaseSpec& c) const {
-  const Source src = case_source(parsed_->base, c);
-  return ::flapline::io::build(src, Reader(src).read());
+  try {
+    const Source src = case_source(parsed_->base, c);
+    ModelSpec s = Reader(src).read();
+    add_offsets(s, c);
+    return ::flapline::io::build(src, std::move(s));
+  } catch (const InputError&) {  // again on a fresh parse, whose nodes know their lines
+    const Source src = case_source(parse(text_, name_, base_dir_, sets_), c, false);
+    ModelSpec s = Reader(src).read();
+    add_offsets(s, c);
+    return ::flapline::io::build(src, std::move(s));
+  }
+}
+
+std::optional<double> CaseLoader::number_at(const std::string& key) const {
+  const Source& src = parsed_->base;
+  auto scalar = [&](const std::string& path) -> std::optional<YAML::Node> {
+    YAML::Node cur;
+    cur.reset(src.root);
+    std::stringstream ss(path);
+    for (std::string part; std::getline(ss, part, '.');) {
+      if (cur.IsSequence()) {
+        char* end = nullptr;
+        const long k = std::strtol(part.c_str(), &end, 10);
+        if (*end != '\0' || k < 0 || static_cast<std::size_t>(k) >= cur.size()) return std::nullopt;
+        const YAML::Node next = static_cast<const YAML::Node&>(cur)[static_cast<std::size_t>(k)];
+        cur.reset(next);
+        continue;
+      }
+      if (!cur.IsMap()) return std::nullopt;
+      const YAML::Node next = static_cast<const YAML::Node&>(cur)[part];
+      if (!next.IsDefined()) return std::nullopt;
+      cur.reset(next);
+    }
+    return cur;
+  };
+  auto as_number = [&](const YAML::Node& n) -> std::optional<double> {
+    if (!n.IsScalar()) return std::nullopt;
+    try {
+      return n.as<double>();
+    } catch (const YAML::BadConversion&) {
+      return std::nullopt;
+    }
+  };
+  if (auto n = scalar(key)) return as_number(*n);
+  // A side's key inherits the shared gait block's value.
+  for (const char* side : {"gait.left.", "gait.right."})
+    if (key.rfind(side, 0) == 0)
+      if (auto n = scalar("gait." + key.substr(std::string(side).size()))) return as_number(*n);
+  // Waveform fields left out take their defaults (configs/README.md): a constant given as a
+  // number is the mean.
+  const auto dot = key.rfind('.');
+  if (dot != std::string::npos && key.rfind("gait.", 0) == 0) {
+    const std::string field = key.substr(dot + 1), wave = key.substr(0, dot);
+    std::string shared = wave;
+    for (const char* side : {"gait.left.", "gait.right."})
+      if (wave.rfind(side, 0) == 0) shared = "gait." + wave.substr(std::string(side).size());
+    for (const std::string& w : {wave, shared})
+      if (auto n = scalar(w); n && n->IsScalar()) return field == "mean" ? as_number(*n) : 0.0;
+    const bool span_ratio = wave.size() >= 10 && wave.compare(wave.size() - 10, 10, "span_ratio") == 0;
+    if (field == "mean") return span_ratio ? 1.0 : 0.0;
+    if (field == "amplitude" || field == "phase") return 0.0;
+  }
+  return std::nullopt;
 }
 
 void CaseLoader::locate(InputError& e, const studies::CaseSpec& c) const {
@@ -743,7 +896,7 @@ void CaseLoader::locate(InputError& e, const studies::CaseSpec& c) const {
     }
     src.overrides[o.key] = "case " + o.key + "=" + (o.remove ? "~" : o.text);
   }
-  InputError located(written_key(src, e.key()), e.value(), e.allowed(), e.hint());
+  InputError located = e.rekeyed(written_key(src, e.key()));
   src.locate(located);
   e = located;
 }

@@ -51,8 +51,9 @@ void read_case_table(SweepDefinition& def) {
   while (std::getline(in, line)) {
     ++lineno;
     if (!line.empty() && line.back() == '\r') line.pop_back();
+    if (lineno == 1 && line.rfind("\xEF\xBB\xBF", 0) == 0) line.erase(0, 3);  // a UTF-8 BOM
     const auto first = line.find_first_not_of(" \t");
-    if (first == std::string::npos || line[first] == '#') continue;
+    if (first == std::string::npos || (!header && line[first] == '#')) continue;
     std::vector<std::string> cells = studies::csv_split(line);
     for (std::string& c : cells) {
       const auto a = c.find_first_not_of(" \t"), b = c.find_last_not_of(" \t");
@@ -95,16 +96,12 @@ double parse_cell(const std::string& s) {
   return r.ec == std::errc() ? v : std::numeric_limits<double>::quiet_NaN();
 }
 
-/// An error the key refuses whatever the other keys hold (so a sweep should not start).
+/// An error the key's value earns whatever the other keys hold (so a sweep should not start):
+/// raised for the key itself or for a key above it (an unknown key, a list that is not there),
+/// and not a rule between keys (InputError::between_keys).
 bool about_key(const InputError& e, const std::string& key) {
-  if (e.key() == key) return true;
-  const std::string& a = e.allowed();
-  const bool parent = key.rfind(e.key() + ".", 0) == 0;
-  return (parent && a.rfind("unknown key", 0) == 0) ||
-         a.find("cannot set a key inside") != std::string::npos ||
-         a.find("must index the list") != std::string::npos ||
-         a.find("not valid YAML") != std::string::npos ||
-         a.find("key path must be") != std::string::npos;
+  if (e.is_between_keys()) return false;
+  return e.key() == key || key.rfind(e.key() + ".", 0) == 0;
 }
 
 std::string safe_stem(const std::string& key) {
@@ -135,10 +132,13 @@ void complete_definition(SweepDefinition& def) {
     }
     def.columns = studies::varied_keys(def.design);
     def.cases = studies::make_cases(def.design);
-    if (def.cases.size() > 100000000)
-      throw InputError("--vary", std::to_string(def.cases.size()) + " cases",
-                       "a sweep holds at most 100000000 cases");
   }
+  // One spelling per key: no key may also be varied through a key above or below it.
+  for (const std::string& a : def.columns)
+    for (const std::string& b : def.columns)
+      if (a != b && b.rfind(a + ".", 0) == 0)
+        throw InputError(def.cases_file.empty() ? "--vary " + b : "--cases " + b, "'" + b + "'",
+                         "is part of '" + a + "', which is varied too; vary one of them");
   studies::Fingerprint f;
   f.add("flapline sweep");
   f.add(def.config_text);
@@ -232,21 +232,27 @@ std::string sweep_csv(const std::vector<std::string>& columns,
 
 SweepFolder::SweepFolder(fs::path dir, const SweepDefinition& def, const Shard& shard)
     : dir_(std::move(dir)), def_(def), shard_(shard), header_(studies::table_header(def.columns)) {
-  const std::string tag = std::string(kJournalTag) + "; fingerprint " + def.fingerprint +
-                          "; shard " + std::to_string(shard.index) + "/" +
-                          std::to_string(shard.count) + "\n";
+  const std::string tag = std::string(kJournalTag) + "; flapline " + kVersion +
+                          "; fingerprint " + def.fingerprint + "; shard " +
+                          std::to_string(shard.index) + "/" + std::to_string(shard.count) + "\n";
   const fs::path journal = dir_ / kJournal;
   std::error_code ec;
   if (fs::exists(journal, ec)) {
     std::string text = slurp(journal);
     const std::size_t nl = text.find('\n');
     const std::string first = nl == std::string::npos ? text : text.substr(0, nl + 1);
-    if (first != tag)
+    const std::size_t nl2 = nl == std::string::npos ? nl : text.find('\n', nl + 1);
+    const std::string second =
+        nl2 == std::string::npos ? std::string() : text.substr(nl + 1, nl2 - nl);
+    if (first != tag || second != header_) {
+      std::string what = first.rfind(kJournalTag, 0) == 0
+                             ? first.substr(std::string(kJournalTag).size() + 2)
+                             : std::string("not a sweep journal");
+      if (!what.empty() && what.back() == '\n') what.pop_back();
       throw InputError("-o", "'" + dir_.string() + "'",
-                       "the folder holds another sweep (" +
-                           (first.rfind(kJournalTag, 0) == 0 ? first.substr(std::string(kJournalTag).size() + 2, 40)
-                                                             : std::string("not a sweep journal")) +
+                       "the folder holds another sweep (" + what +
                            "); choose another folder or remove it");
+    }
     // Drop a row cut short by a killed job, so that appending starts on a fresh line.
     const std::size_t last = text.rfind('\n');
     if (last + 1 != text.size()) {
@@ -409,6 +415,16 @@ void merge_sweeps(const std::vector<fs::path>& shards, const fs::path& out_dir, 
                   std::string* plot_note) {
   using nlohmann::json;
   if (shards.empty()) throw InputError("merge", "(none)", "name the shard folders to merge");
+  {
+    std::error_code ec;
+    for (const fs::path& dir : shards)
+      if (fs::exists(out_dir, ec) && fs::equivalent(dir, out_dir, ec))
+        throw InputError("-o", "'" + out_dir.string() + "'",
+                         "is one of the shard folders; merge into a new folder");
+    if (fs::exists(out_dir / kJournal, ec))
+      throw InputError("-o", "'" + out_dir.string() + "'",
+                       "holds a sweep's journal (a sweep or shard folder); merge into a new folder");
+  }
   std::map<int, fs::path> seen;
   std::string fingerprint;
   int count = 0;
@@ -424,21 +440,32 @@ void merge_sweeps(const std::vector<fs::path>& shards, const fs::path& out_dir, 
       throw InputError("merge", "'" + dir.string() + "'",
                        "holds no finished sweep (sweep.json and sweep.csv); finish that shard first");
     json j;
+    int k = 0, n = 1;
+    std::string fp, version;
+    std::size_t shard_cases = 0;
+    std::vector<std::string> shard_columns;
     try {
       j = json::parse(slurp(meta));
+      k = j.contains("shard") ? j.at("shard").at("index").get<int>() : 0;
+      n = j.contains("shard") ? j.at("shard").at("count").get<int>() : 1;
+      fp = j.at("fingerprint").get<std::string>();
+      version = j.at("version").get<std::string>();
+      shard_cases = j.at("cases").get<std::size_t>();
+      shard_columns = j.at("design").at("keys").get<std::vector<std::string>>();
     } catch (const json::exception&) {
       throw InputError("merge", "'" + meta.string() + "'", "is not a sweep.json flapline wrote");
     }
-    const int k = j.contains("shard") ? j["shard"]["index"].get<int>() : 0;
-    const int n = j.contains("shard") ? j["shard"]["count"].get<int>() : 1;
-    const std::string fp = j.value("fingerprint", "");
+    if (version != kVersion)
+      throw InputError("merge", "'" + meta.string() + "'",
+                       "was written by flapline " + version + "; this is " + kVersion +
+                           ": rerun that shard with this version");
     if (fingerprint.empty()) {
       fingerprint = fp;
       count = n;
-      cases = j["cases"].get<std::size_t>();
+      cases = shard_cases;
       first = j;
-      columns = j["design"]["keys"].get<std::vector<std::string>>();
-      kind = from_string<studies::DesignKind>(j["design"]["kind"].get<std::string>()).value_or(kind);
+      columns = shard_columns;
+      kind = from_string<studies::DesignKind>(j["design"].value("kind", "grid")).value_or(kind);
     } else if (fp != fingerprint || n != count) {
       throw InputError("merge", "'" + dir.string() + "'",
                        "belongs to another sweep (fingerprint " + fp + ", " + std::to_string(n) +
@@ -453,6 +480,9 @@ void merge_sweeps(const std::vector<fs::path>& shards, const fs::path& out_dir, 
     std::istringstream in(slurp(table));
     std::string line;
     std::getline(in, line);
+    if (line + "\n" != studies::table_header(columns))
+      throw InputError("merge", "'" + table.string() + "'",
+                       "has another header than the sweep's table");
     const std::size_t ncol = studies::table_columns(columns).size();
     std::size_t got = 0;
     while (std::getline(in, line)) {

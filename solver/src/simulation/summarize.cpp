@@ -262,6 +262,23 @@ void start_summary(const Model& model, RunSummary& out) {
   out.kinematic_viscosity = model.air().kinematic_viscosity;
 }
 
+VehicleBalance vehicle_balance(const Model& model, const CycleStats& averages) {
+  const VehicleSpec& v = *model.vehicle();
+  const FlightSpec& f = model.flight();
+  VehicleBalance b;
+  b.weight = v.mass * kStandardGravity;
+  b.gravity_force = v.mass * gravity_body(v.roll, v.pitch);
+  const Eigen::Vector3d va = f.velocity - f.wind;  // the body's velocity relative to the air
+  b.body_drag = -0.5 * model.air().density * va.norm() * va * v.drag_area;
+  b.net.force = averages.mean.force + b.gravity_force + b.body_drag;
+  b.net.moment = averages.mean.moment;  // weight and body drag act at the reference point
+  b.lift_to_weight = -averages.mean.force.z() / b.weight;
+  const Eigen::Matrix3d inertia = inertia_matrix(v);
+  b.steady_residual.force = b.net.force - v.mass * f.rates.cross(f.velocity);
+  b.steady_residual.moment = b.net.moment - f.rates.cross(inertia * f.rates);
+  return b;
+}
+
 void finish_summary(const Model& model, Workspace& ws, const CycleOutcome& outcome,
                     const SpanwiseAccumulator& spanwise, RunSummary& out) {
   out.status = outcome.status;
@@ -270,6 +287,7 @@ void finish_summary(const Model& model, Workspace& ws, const CycleOutcome& outco
   out.state_residual = outcome.state_residual;
   out.averages = outcome.last;
   derive_quantities(model, ws, outcome.cycles - 1, out);
+  if (model.vehicle()) out.vehicle = vehicle_balance(model, out.averages);
   out.spanwise = spanwise.rows(model);
   status_and_warnings(model, outcome, out);
 }

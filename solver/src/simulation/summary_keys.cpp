@@ -1,5 +1,7 @@
 #include "flapline/simulation/summary_keys.hpp"
 
+#include <array>
+
 #include "flapline/common/math.hpp"
 
 namespace flapline {
@@ -28,9 +30,34 @@ void add_wrench_keys(std::vector<SummaryKey>& keys, const std::string& prefix) {
   keys.push_back({prefix + "N_yaw_Nm", [](const RunSummary& s) -> Value { return wrench_of<Wing>(s).moment.z(); }});
 }
 
+template <int Which>  // 0 net mean wrench, 1 steady-flight residual
+const Wrench& vehicle_wrench(const VehicleBalance& v) {
+  if constexpr (Which == 0)
+    return v.net;
+  else
+    return v.steady_residual;
+}
+
+template <int Which>
+void add_vehicle_wrench(std::vector<SummaryKey>& keys, const std::string& prefix) {
+  const std::array<const char*, 6> names{"X_N", "Y_N", "Z_N", "L_roll_Nm", "M_pitch_Nm", "N_yaw_Nm"};
+  using F = Value (*)(const RunSummary&);
+  const std::array<F, 6> get{
+      [](const RunSummary& s) -> Value { return s.vehicle ? Value(vehicle_wrench<Which>(*s.vehicle).force.x()) : std::nullopt; },
+      [](const RunSummary& s) -> Value { return s.vehicle ? Value(vehicle_wrench<Which>(*s.vehicle).force.y()) : std::nullopt; },
+      [](const RunSummary& s) -> Value { return s.vehicle ? Value(vehicle_wrench<Which>(*s.vehicle).force.z()) : std::nullopt; },
+      [](const RunSummary& s) -> Value { return s.vehicle ? Value(vehicle_wrench<Which>(*s.vehicle).moment.x()) : std::nullopt; },
+      [](const RunSummary& s) -> Value { return s.vehicle ? Value(vehicle_wrench<Which>(*s.vehicle).moment.y()) : std::nullopt; },
+      [](const RunSummary& s) -> Value { return s.vehicle ? Value(vehicle_wrench<Which>(*s.vehicle).moment.z()) : std::nullopt; }};
+  for (std::size_t i = 0; i < 6; ++i) keys.push_back({prefix + names[i], get[i], false, true});
+}
+
 std::vector<SummaryKey> make_keys() {
   std::vector<SummaryKey> k;
   auto add = [&k](const char* path, Value (*f)(const RunSummary&)) { k.push_back({path, f}); };
+  auto add_vehicle = [&k](const char* path, Value (*f)(const RunSummary&)) {
+    k.push_back({path, f, false, true});
+  };
   auto add_count = [&k](const char* path, Value (*f)(const RunSummary&)) {
     k.push_back({path, f, true});
   };
@@ -70,6 +97,24 @@ std::vector<SummaryKey> make_keys() {
   add("derived.force_rms_N", [](const RunSummary& s) -> Value { return s.averages.force_rms; });
   add("derived.induced_drag_N", [](const RunSummary& s) -> Value { return s.averages.induced_drag_mean; });
   add("derived.reverse_flow_fraction", [](const RunSummary& s) -> Value { return s.derived.reverse_flow_fraction; });
+  // With a vehicle section (null without one).
+  add_vehicle("vehicle.weight_N", [](const RunSummary& s) -> Value {
+    return s.vehicle ? Value(s.vehicle->weight) : std::nullopt;
+  });
+  add_vehicle("vehicle.lift_to_weight", [](const RunSummary& s) -> Value {
+    return s.vehicle ? Value(s.vehicle->lift_to_weight) : std::nullopt;
+  });
+  add_vehicle_wrench<0>(k, "net_mean.");
+  add_vehicle_wrench<1>(k, "steady_flight_residual.");
+  add_vehicle("vehicle.body_drag_X_N", [](const RunSummary& s) -> Value {
+    return s.vehicle ? Value(s.vehicle->body_drag.x()) : std::nullopt;
+  });
+  add_vehicle("vehicle.body_drag_Y_N", [](const RunSummary& s) -> Value {
+    return s.vehicle ? Value(s.vehicle->body_drag.y()) : std::nullopt;
+  });
+  add_vehicle("vehicle.body_drag_Z_N", [](const RunSummary& s) -> Value {
+    return s.vehicle ? Value(s.vehicle->body_drag.z()) : std::nullopt;
+  });
   add("derived.high_alpha_fraction", [](const RunSummary& s) -> Value { return s.derived.high_alpha_fraction; });
   return k;
 }

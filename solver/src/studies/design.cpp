@@ -94,8 +94,10 @@ KeyValues parse_vary(const std::string& spec, const std::string& what) {
       const double v =
           log ? kv.low * std::pow(kv.high / kv.low, static_cast<double>(i) / (kv.count - 1))
               : kv.low + static_cast<double>(i) * (kv.high - kv.low) / (kv.count - 1);
-      kv.numbers.push_back(v);
-      kv.texts.push_back(shortest(v));
+      // The bounds themselves, exactly (a rounded last point could leave the key's range).
+      const double exact = i == 0 ? kv.low : i == kv.count - 1 ? kv.high : v;
+      kv.numbers.push_back(exact);
+      kv.texts.push_back(shortest(exact));
     }
   }
   return kv;
@@ -137,7 +139,13 @@ std::vector<CaseSpec> make_cases(const Design& design) {
   switch (design.kind) {
     case DesignKind::grid: {
       std::size_t total = dims == 0 ? 0 : 1;
-      for (const KeyValues& k : design.keys) total *= k.texts.size();
+      for (const KeyValues& k : design.keys) {
+        if (total > kMaxCases / std::max<std::size_t>(k.texts.size(), 1))
+          throw InputError("--vary", "a grid of more than " + std::to_string(kMaxCases) + " cases",
+                           "a sweep holds at most " + std::to_string(kMaxCases) +
+                               " cases; use fewer values, shards of a latin design, or several sweeps");
+        total *= k.texts.size();
+      }
       cases.reserve(total);
       std::vector<std::size_t> idx(dims, 0);
       for (std::size_t c = 0; c < total; ++c) {

@@ -31,7 +31,9 @@ bool launched() {
 }
 
 Session::Session(int* argc, char*** argv) {
-  MPI_Init(argc, argv);
+  // Only the main thread calls MPI; the workers' OpenMP threads never do.
+  int provided = 0;
+  MPI_Init_thread(argc, argv, MPI_THREAD_FUNNELED, &provided);
   MPI_Comm_rank(MPI_COMM_WORLD, &rank_);
   MPI_Comm_size(MPI_COMM_WORLD, &size_);
   MPI_Comm node;
@@ -41,6 +43,11 @@ Session::Session(int* argc, char*** argv) {
 }
 
 Session::~Session() { MPI_Finalize(); }
+
+void Session::abort(int code) const {
+  MPI_Abort(MPI_COMM_WORLD, code);
+  std::abort();  // not reached
+}
 
 void distribute(const Session& session, const std::vector<CaseSpec>& cases,
                 const std::vector<std::size_t>& indices, const CaseBuilderFactory& factory,

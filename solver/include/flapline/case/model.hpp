@@ -7,6 +7,7 @@
 /// Thread-safety: a Model may be shared by any number of threads, each with its own Workspace.
 
 #include <array>
+#include <optional>
 #include <string>
 
 #include "flapline/case/aero_options.hpp"
@@ -16,6 +17,7 @@
 #include "flapline/kinematics/gait.hpp"
 #include "flapline/kinematics/wing_motion.hpp"
 #include "flapline/case/simulation_options.hpp"
+#include "flapline/case/vehicle.hpp"
 
 namespace flapline {
 
@@ -29,6 +31,11 @@ struct ModelSpec {
   AirSpec air;
   AeroOptions aero;
   SimulationOptions simulation;
+  /// The vehicle (mass, inertia, body drag, attitude); none: loads of the wings alone.
+  std::optional<VehicleSpec> vehicle;
+  /// Airspeed, flight-path angle, sideslip, turn rate: then flight.velocity and flight.rates are
+  /// derived (needs a vehicle for its attitude).
+  std::optional<FlightCondition> condition;
 };
 
 /// Per-strip arrays of the wing pair (right wing's strips first, then the left's), unscaled by
@@ -55,6 +62,11 @@ class Model {
   const WingMotion& motion(Side side) const noexcept { return motion_[static_cast<int>(side)]; }
   const AeroOptions& aero_options() const noexcept { return spec_.aero; }
   const SimulationOptions& simulation() const noexcept { return spec_.simulation; }
+  /// The vehicle, if the case has one.
+  const std::optional<VehicleSpec>& vehicle() const noexcept { return spec_.vehicle; }
+  /// The body's velocity and rates in use (derived from a flight condition when there is one,
+  /// offsets included): spec().flight after resolution.
+  const FlightSpec& flight() const noexcept { return spec_.flight; }
   /// Strips per wing N; the pair has 2N.
   Eigen::Index strips_per_wing() const noexcept { return strips_.size(); }
   Eigen::Index strip_count() const noexcept { return 2 * strips_.size(); }

@@ -28,6 +28,21 @@ class InputError : public std::runtime_error {
   /// Record where the offending key was written; updates what().
   void locate(std::string file, int line);
 
+  /// Mark the error as a rule between keys (the value is fine alone but not with the others':
+  /// e.g. r̂₂ against r̂₁, a key that does not apply to the chosen shape). Studies check each
+  /// value alone before any case runs and leave such rules to the cases.
+  InputError& between_keys() {
+    between_keys_ = true;
+    return *this;
+  }
+  bool is_between_keys() const noexcept { return between_keys_; }
+  /// The same error under another key path (keeps the between-keys mark; not the location).
+  InputError rekeyed(std::string key) const {
+    InputError e(std::move(key), value_, allowed_, hint_);
+    e.between_keys_ = between_keys_;
+    return e;
+  }
+
   /// The one-line message: `file:line: key: value V; allowed: A (hint)`.
   const char* what() const noexcept override { return message_.c_str(); }
 
@@ -35,6 +50,7 @@ class InputError : public std::runtime_error {
   void compose();
   std::string key_, value_, allowed_, hint_, file_, message_;
   int line_ = 0;
+  bool between_keys_ = false;
 };
 
 /// A NaN or an infinity appeared during a run: names the time, the wing and strip and the quantity.

@@ -5,6 +5,7 @@
 /// command line.
 
 #include <memory>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -42,7 +43,10 @@ std::string closest_match(const std::string& word, const std::vector<std::string
 /// file keep its file and line. Not thread-safe: copy it per thread (a copy parses anew).
 class CaseLoader {
  public:
-  CaseLoader(const std::string& path, const std::vector<std::string>& sets);
+  /// `display_name` stands for the file in messages (default: `path`; studies pass the file's
+  /// name alone, so that their rows do not depend on how the path was spelled).
+  CaseLoader(const std::string& path, const std::vector<std::string>& sets,
+             const std::string& display_name = {});
   /// From text; `name` stands for the file in messages, `base_dir` resolves table files.
   CaseLoader(std::string text, std::string name, std::string base_dir,
              std::vector<std::string> sets);
@@ -53,6 +57,10 @@ class CaseLoader {
   /// The case's ModelSpec / Model; throws InputError located as described above.
   ModelSpec spec(const studies::CaseSpec& c) const;
   Model build(const studies::CaseSpec& c) const;
+  /// The number a key holds in the base configuration (after --set): the value written there,
+  /// a side's key inheriting the shared gait value, a waveform field left out taking its default
+  /// (mean 0, span ratio mean 1, amplitude 0, phase 0). Empty when the key holds no number.
+  std::optional<double> number_at(const std::string& key) const;
   /// Place an error raised after building (e.g. by the run's step-size check) at its key.
   void locate(InputError& error, const studies::CaseSpec& c) const;
 

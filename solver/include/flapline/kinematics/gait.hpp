@@ -48,6 +48,10 @@ struct FlightSpec {
   Eigen::Vector3d velocity = Eigen::Vector3d::Zero();  ///< m/s, body velocity (u, v, w)
   Eigen::Vector3d rates = Eigen::Vector3d::Zero();     ///< rad/s, body rates (p, q, r)
   Eigen::Vector3d wind = Eigen::Vector3d::Zero();      ///< m/s, air velocity
+  /// Added to the velocity and rates after they are derived from a flight condition (studies:
+  /// perturbations for stability derivatives). Not a config key.
+  Eigen::Vector3d velocity_offset = Eigen::Vector3d::Zero();
+  Eigen::Vector3d rates_offset = Eigen::Vector3d::Zero();
 };
 
 }  // namespace flapline

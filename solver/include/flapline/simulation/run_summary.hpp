@@ -98,6 +98,17 @@ struct SpanwiseRow {
   double induced_wash = 0;           ///< KΓ at the control point (m/s; lifting line)
 };
 
+/// With a vehicle: the net mean wrench and the steady-flight balance (DESIGN §9).
+struct VehicleBalance {
+  double weight = 0;              ///< m·g (N)
+  Eigen::Vector3d gravity_force = Eigen::Vector3d::Zero();  ///< m·g_B (N), body axes
+  Eigen::Vector3d body_drag = Eigen::Vector3d::Zero();      ///< −½ρ|V_a|V_a·C_D S (N)
+  Wrench net;                     ///< cycle-mean aerodynamic wrench + weight + body drag
+  double lift_to_weight = 0;      ///< −Z̄_aero / (m g)
+  /// Steady flight needs net force = m ω×V_B and net moment = ω×(Iω): net minus those.
+  Wrench steady_residual;
+};
+
 struct RunSummary {
   RunStatus status = RunStatus::single_cycle;
   std::string message;
@@ -118,6 +129,7 @@ struct RunSummary {
 
   CycleStats averages;  ///< of the last cycle
   DerivedQuantities derived;
+  std::optional<VehicleBalance> vehicle;  ///< with a vehicle section only
   std::vector<HistoryRow> history;
   std::vector<SpanwiseRow> spanwise;
 

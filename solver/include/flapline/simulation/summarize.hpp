@@ -57,6 +57,9 @@ struct CycleOutcome {
   CycleStats last;            ///< statistics of the last cycle
 };
 
+/// Net mean wrench and steady-flight residual of a case with a vehicle, from its cycle means.
+VehicleBalance vehicle_balance(const Model& model, const CycleStats& averages);
+
 /// Header fields of a summary (model label, resolution, air) before the run starts.
 void start_summary(const Model& model, RunSummary& out);
 

@@ -12,6 +12,7 @@
 /// the count. Generated numbers are written in shortest round-trip form, so the text a case
 /// carries parses back to exactly the double the design computed.
 
+#include <array>
 #include <cstddef>
 #include <cstdint>
 #include <string>
@@ -35,6 +36,9 @@ struct Override {
 struct CaseSpec {
   std::vector<Override> overrides;
   std::size_t source = 0;  ///< which base configuration (a comparison of several files)
+  /// Added to the body's velocity (m/s) and rates (rad/s) after they are resolved (stability
+  /// derivatives perturb the flight state even when a flight condition derives it).
+  std::array<double, 3> velocity_offset{0, 0, 0}, rates_offset{0, 0, 0};
 };
 
 /// The values one key takes.
@@ -76,6 +80,9 @@ struct Design {
   int samples = 0;          ///< latin: number of samples N
   std::uint64_t seed = 1;   ///< latin: seed of the generator
 };
+
+/// The most cases a design may hold.
+inline constexpr std::size_t kMaxCases = 100000000;
 
 /// The cases of a design, in case order:
 /// - grid: every combination, the last key varying fastest;

@@ -28,6 +28,8 @@ class Session {
   int size() const noexcept { return size_; }
   /// Ranks on this node (for the default thread count: cores ÷ ranks per node).
   int node_size() const noexcept { return node_size_; }
+  /// End every rank of the job with `code` (after a failure on one of them).
+  [[noreturn]] void abort(int code) const;
 
  private:
   int rank_ = 0, size_ = 1, node_size_ = 1;
