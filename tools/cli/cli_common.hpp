@@ -13,7 +13,8 @@ namespace flapline::cli {
 
 /// Exit statuses (README, "What you get").
 constexpr int kExitWrite = 1, kExitInput = 2, kExitNumerical = 3, kExitValidation = 4,
-              kExitStudyFailures = 5, kExitInterrupted = 130;
+              kExitStudyFailures = 5, kExitNotReachable = 6, kExitNotConverged = 7,
+              kExitInterrupted = 130;
 
 inline const char* const kNoGnuplot =
     "figures skipped: gnuplot (with PNG and SVG output) is not installed";

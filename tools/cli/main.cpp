@@ -27,6 +27,7 @@
 #include "flapline/validation/validation.hpp"
 #include "flapline/version.hpp"
 #include "cli_common.hpp"
+#include "local_studies.hpp"
 #include "sweep.hpp"
 
 namespace {
@@ -360,6 +361,42 @@ int main(int argc, char** argv) {
   cmd_merge->add_flag("-q,--quiet", mg.quiet, "Print nothing on success");
   cmd_merge->add_flag("--plot,!--no-plot", mg.plot, "Sweep figures with gnuplot (default: on)");
 
+  TrimArgs tr;
+  CLI::App* cmd_trim = app.add_subcommand(
+      "trim", "Find the free key values that meet targets or balance the vehicle in steady flight");
+  cmd_trim->add_option("config", tr.config, "YAML case file")->required();
+  cmd_trim->add_option("--free", tr.frees, "KEY=LO:HI: a free key and its bounds (repeat)")->take_all();
+  cmd_trim->add_option("--target", tr.targets,
+                       "QUANTITY=VALUE: a summary.json key path and its target (repeat)")
+      ->take_all();
+  cmd_trim->add_flag("--balance", tr.balance, "Steady flight of the vehicle instead of targets");
+  cmd_trim->add_option("--tolerance", tr.tolerance, "Scaled residual RMS for 'trimmed' (default 1e-6)");
+  cmd_trim->add_option("--threads", tr.threads, "Worker threads (default: the cores available)")
+      ->check(CLI::Range(1, 4096));
+  cmd_trim->add_option("-o,--out", tr.out, "Output folder (default: results/<config name>_trim)");
+  cmd_trim->add_option("--set", tr.sets, "Override a config key")->take_all();
+  cmd_trim->add_flag("-q,--quiet", tr.quiet, "Print nothing on success");
+  cmd_trim->add_flag("--plot,!--no-plot", tr.plot, "Figures with gnuplot (default: on)");
+
+  DerivativesArgs dv, md;
+  CLI::App* cmd_der = app.add_subcommand(
+      "derivatives", "Control and stability derivatives of the cycle-mean forces, moments, power");
+  CLI::App* cmd_modes = app.add_subcommand(
+      "modes", "Wing-beat-averaged flight dynamics: linear model, eigenvalues and modes");
+  for (auto [cmd, args] : {std::pair<CLI::App*, DerivativesArgs*>{cmd_der, &dv}, {cmd_modes, &md}}) {
+    cmd->add_option("config", args->config, "YAML case file")->required();
+    cmd->add_option("--param", args->params, "A gait or config key to differentiate by (repeat)")
+        ->take_all();
+    cmd->add_option("--threads", args->threads, "Worker threads (default: the cores available)")
+        ->check(CLI::Range(1, 4096));
+    cmd->add_option("-o,--out", args->out, "Output folder");
+    cmd->add_option("--set", args->sets, "Override a config key")->take_all();
+    cmd->add_flag("-q,--quiet", args->quiet, "Print nothing on success");
+    cmd->add_flag("--plot,!--no-plot", args->plot, "Figures with gnuplot (default: on)");
+  }
+  cmd_der->add_flag("--flight", dv.flight,
+                    "Also the stability derivatives: body velocity u, v, w and rates p, q, r");
+
   ValidateArgs val;
   CLI::App* cmd_val = app.add_subcommand(
       "validate", "Run the validation cases against classical results and write report.md");
@@ -385,6 +422,9 @@ int main(int argc, char** argv) {
       return sweep_command(sw);
     }
     if (*cmd_merge) return merge_command(mg);
+    if (*cmd_trim) return trim_command(tr);
+    if (*cmd_der) return derivatives_command(dv);
+    if (*cmd_modes) return modes_command(md);
     if (*cmd_val) return validate_command(val);
   } catch (const InputError& e) {
     std::cerr << "flapline: error: " << e.what() << "\n";

@@ -885,6 +885,19 @@ std::optional<double> CaseLoader::number_at(const std::string& key) const {
   return std::nullopt;
 }
 
+std::string CaseLoader::document(const studies::CaseSpec& c) const {
+  Source src = case_source(parsed_->base, c);
+  YAML::Node wing = src.root["wing"];
+  if (wing.IsMap() && wing["table_file"].IsDefined() && wing["table_file"].IsScalar()) {
+    const fs::path file = fs::absolute(fs::path(base_dir_) / wing["table_file"].Scalar());
+    wing["table_file"] = file.lexically_normal().string();
+  }
+  YAML::Emitter out;
+  out.SetDoublePrecision(17);
+  out << src.root;
+  return std::string(out.c_str()) + "\n";
+}
+
 void CaseLoader::locate(InputError& e, const studies::CaseSpec& c) const {
   Source src = parsed_->base;
   src.root.reset(YAML::Clone(parsed_->base.root));

@@ -108,7 +108,25 @@ std::map<std::string, std::string> render(const Plot& plot, const ColourMap& map
     gp << "set view map\nset pm3d map interpolate 0,0\nset palette rgb 33,13,10\n";
     gp << "set cblabel " << quoted(map.zlabel) << " noenhanced\n";
     gp << "set xrange [*:*] noextend\nset yrange [*:*] noextend\n";
-    cmd << "splot 'map.dat' using 1:2:3 with pm3d notitle";
+    auto tics = [&](const char* axis, const std::vector<double>& at,
+                    const std::vector<std::string>& labels) {
+      if (labels.empty()) return;
+      gp << "set " << axis << "tics (";
+      for (std::size_t i = 0; i < labels.size() && i < at.size(); ++i)
+        gp << (i ? ", " : "") << quoted(labels[i]) << " " << at[i];
+      gp << ") noenhanced\n";
+    };
+    tics("x", map.x, map.xtics);
+    tics("y", map.y, map.ytics);
+    if (!map.xtics.empty()) gp << "set xtics rotate by -30\n";
+    if (map.cells) {
+      gp << "set xrange [" << map.x.front() - 0.5 << ":" << map.x.back() + 0.5 << "]\n";
+      gp << "set yrange [" << map.y.back() + 0.5 << ":" << map.y.front() - 0.5 << "]\n";
+      gp << "set cbrange [-1:1]\nset palette defined (-1 '#2166ac', 0 '#f7f7f7', 1 '#b2182b')\n";
+      cmd << "plot 'map.dat' using 1:2:3 with image notitle";
+    } else {
+      cmd << "splot 'map.dat' using 1:2:3 with pm3d notitle";
+    }
     if (!plot.series.empty()) cmd << ", ";
   } else {
     cmd << "plot ";

@@ -64,6 +64,10 @@ class CaseLoader {
   /// Place an error raised after building (e.g. by the run's step-size check) at its key.
   void locate(InputError& error, const studies::CaseSpec& c) const;
 
+  /// The case as a YAML document that runs as is: the base (with --set) and the case's
+  /// overrides, a table file's path made absolute. Comments are not kept.
+  std::string document(const studies::CaseSpec& c) const;
+
   const std::string& text() const noexcept { return text_; }
   const std::string& name() const noexcept { return name_; }
   const std::vector<std::string>& sets() const noexcept { return sets_; }

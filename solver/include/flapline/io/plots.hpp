@@ -31,6 +31,11 @@ struct ColourMap {
   std::vector<double> x, y;
   std::vector<std::vector<double>> z;
   std::string zlabel;  ///< with unit
+  /// Optional tick labels at x[i] / y[j].
+  std::vector<std::string> xtics, ytics;
+  /// Draw each value as a cell centred on its point (a matrix on integer x, y), not as a
+  /// surface through the points.
+  bool cells = false;
 };
 
 /// One figure.
