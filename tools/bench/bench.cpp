@@ -10,7 +10,9 @@
 #include "flapline/io/config.hpp"
 #include "flapline/samples/samples.hpp"
 #include "flapline/simulation/integrate.hpp"
+#include "flapline/studies/derivatives.hpp"
 #include "flapline/studies/runner.hpp"
+#include "flapline/studies/trim.hpp"
 
 namespace {
 
@@ -145,8 +147,65 @@ void sweep(benchmark::State& state, const char* model, int cases) {
 void sweep_quasi_steady_hover_10000(benchmark::State& state) { sweep(state, "quasi_steady", 10000); }
 void sweep_wagner_hover_1000(benchmark::State& state) { sweep(state, "wagner", 1000); }
 
+// Trim and derivatives of the hover vehicle demo (inner runs as `flapline trim` makes them).
+studies::CaseBuilderFactory loader_factory(const io::CaseLoader& loader) {
+  return [&loader] {
+    auto own = std::make_shared<io::CaseLoader>(loader);
+    return [own](const studies::CaseSpec& c) { return own->build(c); };
+  };
+}
+studies::Parameter free_key(const io::CaseLoader& l, const char* key, double lo, double hi) {
+  studies::Parameter p;
+  p.name = key;
+  p.base = *l.number_at(key);
+  p.low = lo;
+  p.high = hi;
+  return p;
+}
+void trim_hover(benchmark::State& state, const char* model) {
+  const io::CaseLoader loader(std::string(FLAPLINE_SOURCE_DIR) + "/configs/hover_vehicle.yaml",
+                              {std::string("model.kind=") + model, "wing.strips=20",
+                               "simulation.start=periodic", "simulation.tolerance=1e-9"});
+  const std::vector<studies::Parameter> free{
+      free_key(loader, "gait.left.stroke.amplitude", 40, 75),
+      free_key(loader, "gait.right.stroke.amplitude", 40, 75),
+      free_key(loader, "gait.pitch.mean", 60, 120)};
+  const std::vector<studies::Target> targets{{"cycle_mean.lift_N", 0.0196133},
+                                             {"cycle_mean.L_roll_Nm", 2e-5},
+                                             {"cycle_mean.X_N", 0.0}};
+  studies::TrimOptions o;
+  o.runner.threads = static_cast<int>(state.range(0));
+  int runs = 0;
+  for (auto _ : state) {
+    const studies::TrimResult r = studies::trim(free, targets, {}, loader_factory(loader), o);
+    runs = r.runs;
+    benchmark::DoNotOptimize(r.values.data());
+  }
+  state.counters["runs"] = runs;
+}
+void trim_quasi_steady_3_free(benchmark::State& state) { trim_hover(state, "quasi_steady"); }
+void trim_lifting_line_3_free(benchmark::State& state) { trim_hover(state, "lifting_line"); }
+void derivatives_6_params_and_flight(benchmark::State& state) {
+  const io::CaseLoader loader(std::string(FLAPLINE_SOURCE_DIR) + "/configs/level_bat.yaml",
+                              {"simulation.start=periodic", "simulation.tolerance=1e-9"});
+  std::vector<studies::Parameter> params = studies::Parameter::flight_state();
+  for (const char* k : {"gait.frequency", "gait.stroke.amplitude", "gait.pitch.mean",
+                        "gait.pitch.amplitude", "gait.span_ratio.amplitude", "vehicle.attitude.pitch"})
+    params.push_back(free_key(loader, k, -1e300, 1e300));
+  studies::RunnerOptions o;
+  o.threads = static_cast<int>(state.range(0));
+  for (auto _ : state) {
+    const studies::DerivativeTable t = studies::derivatives(
+        params, studies::derivative_quantities(), {}, loader_factory(loader), o);
+    benchmark::DoNotOptimize(t.value.data());
+  }
+}
+
 }  // namespace
 
+BENCHMARK(trim_quasi_steady_3_free)->Arg(2)->UseRealTime()->Unit(benchmark::kMillisecond);
+BENCHMARK(trim_lifting_line_3_free)->Arg(2)->Iterations(1)->UseRealTime()->Unit(benchmark::kSecond);
+BENCHMARK(derivatives_6_params_and_flight)->Arg(2)->UseRealTime()->Unit(benchmark::kMillisecond);
 BENCHMARK(sweep_quasi_steady_hover_10000)->Arg(1)->Arg(2)->Iterations(1)->UseRealTime()->Unit(benchmark::kSecond);
 BENCHMARK(sweep_wagner_hover_1000)->Arg(1)->Arg(2)->Iterations(1)->UseRealTime()->Unit(benchmark::kSecond);
 BENCHMARK(lifting_line_hover)->Unit(benchmark::kMillisecond);
