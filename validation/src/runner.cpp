@@ -24,7 +24,17 @@ bool CaseResult::ok() const {
          std::all_of(checks.begin(), checks.end(), [](const Check& c) { return c.pass; });
 }
 
-fs::path default_cases_dir() { return fs::path(FLAPLINE_VALIDATION_CASES); }
+fs::path default_cases_dir() {
+  // An installed binary finds the cases in the data folder beside it (PREFIX/bin/flapline →
+  // PREFIX/share/flapline/validation/cases); a build-tree binary uses the source tree's.
+  std::error_code ec;
+  const fs::path exe = fs::read_symlink("/proc/self/exe", ec);
+  if (!ec) {
+    const fs::path installed = exe.parent_path().parent_path() / FLAPLINE_INSTALLED_CASES;
+    if (fs::is_directory(installed, ec)) return installed;
+  }
+  return fs::path(FLAPLINE_VALIDATION_CASES);
+}
 
 namespace {
 

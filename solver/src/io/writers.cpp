@@ -21,11 +21,6 @@ void cell(std::string& out, double v) {
   out += buf;
 }
 
-void wrench_cells(std::string& out, const Wrench& w) {
-  for (int i = 0; i < 3; ++i) cell(out, w.force(i));
-  for (int i = 0; i < 3; ++i) cell(out, w.moment(i));
-}
-
 std::string replace_all(std::string s, const std::string& from, const std::string& to) {
   for (std::size_t p = s.find(from); p != std::string::npos; p = s.find(from, p + to.size()))
     s.replace(p, from.size(), to);
@@ -37,35 +32,62 @@ double no_negative_zero(double v) { return v == 0.0 ? 0.0 : v; }
 
 }  // namespace
 
-std::string history_csv(const RunSummary& s) {
-  std::string out =
-      "time_s,cycle,phase,X_N,Y_N,Z_N,L_roll_Nm,M_pitch_Nm,N_yaw_Nm,lift_N,thrust_N,"
-      "right_X_N,right_Y_N,right_Z_N,right_L_roll_Nm,right_M_pitch_Nm,right_N_yaw_Nm,"
-      "left_X_N,left_Y_N,left_Z_N,left_L_roll_Nm,left_M_pitch_Nm,left_N_yaw_Nm,"
-      "power_air_W,power_actuator_W,"
-      "right_stroke_deg,right_deviation_deg,right_pitch_deg,right_span_ratio,"
-      "left_stroke_deg,left_deviation_deg,left_pitch_deg,left_span_ratio\n";
-  out.reserve(out.size() + s.history.size() * 420);
+const std::vector<std::string>& history_columns() {
+  static const std::vector<std::string> c{
+      "time_s", "cycle", "phase", "X_N", "Y_N", "Z_N", "L_roll_Nm", "M_pitch_Nm", "N_yaw_Nm",
+      "lift_N", "thrust_N", "right_X_N", "right_Y_N", "right_Z_N", "right_L_roll_Nm",
+      "right_M_pitch_Nm", "right_N_yaw_Nm", "left_X_N", "left_Y_N", "left_Z_N", "left_L_roll_Nm",
+      "left_M_pitch_Nm", "left_N_yaw_Nm", "power_air_W", "power_actuator_W", "right_stroke_deg",
+      "right_deviation_deg", "right_pitch_deg", "right_span_ratio", "left_stroke_deg",
+      "left_deviation_deg", "left_pitch_deg", "left_span_ratio"};
+  return c;
+}
+
+std::vector<std::vector<double>> history_table(const RunSummary& s) {
+  std::vector<std::vector<double>> t(history_columns().size());
+  for (auto& c : t) c.reserve(s.history.size());
   for (const HistoryRow& r : s.history) {
+    std::size_t k = 0;
+    auto put = [&](double v) { t[k++].push_back(v); };
     const double cycles = r.loads.time * s.frequency;
     const double cycle = std::floor(cycles + 1e-9);
-    char buf[64];
-    std::snprintf(buf, sizeof buf, "%.9g,%d,%.6f", r.loads.time, static_cast<int>(cycle),
-                  std::max(0.0, cycles - cycle));
-    out += buf;
-    wrench_cells(out, r.loads.total);
-    cell(out, -r.loads.total.force.z());
-    cell(out, r.loads.total.force.x());
-    wrench_cells(out, r.loads.wing[0]);
-    wrench_cells(out, r.loads.wing[1]);
-    cell(out, r.loads.power_air);
-    cell(out, r.loads.power_actuator);
-    for (const WingAngles& a : r.angles) {
-      cell(out, a.stroke / kDegree);
-      cell(out, a.deviation / kDegree);
-      cell(out, a.pitch / kDegree);
-      cell(out, a.span_ratio);
+    put(r.loads.time);
+    put(cycle);
+    put(std::max(0.0, cycles - cycle));
+    for (const Wrench* w : {&r.loads.total}) {
+      for (int i = 0; i < 3; ++i) put(w->force(i));
+      for (int i = 0; i < 3; ++i) put(w->moment(i));
     }
+    put(-r.loads.total.force.z());
+    put(r.loads.total.force.x());
+    for (const Wrench& w : r.loads.wing) {
+      for (int i = 0; i < 3; ++i) put(w.force(i));
+      for (int i = 0; i < 3; ++i) put(w.moment(i));
+    }
+    put(r.loads.power_air);
+    put(r.loads.power_actuator);
+    for (const WingAngles& a : r.angles) {
+      put(a.stroke / kDegree);
+      put(a.deviation / kDegree);
+      put(a.pitch / kDegree);
+      put(a.span_ratio);
+    }
+  }
+  return t;
+}
+
+std::string history_csv(const RunSummary& s) {
+  const std::vector<std::string>& names = history_columns();
+  std::string out;
+  for (std::size_t k = 0; k < names.size(); ++k) out += (k ? "," : "") + names[k];
+  out += "\n";
+  const std::vector<std::vector<double>> t = history_table(s);
+  out.reserve(out.size() + s.history.size() * 420);
+  for (std::size_t r = 0; r < s.history.size(); ++r) {
+    char buf[64];
+    std::snprintf(buf, sizeof buf, "%.9g,%d,%.6f", t[0][r], static_cast<int>(t[1][r]), t[2][r]);
+    out += buf;
+    for (std::size_t k = 3; k < t.size(); ++k) cell(out, t[k][r]);
     out += "\n";
   }
   return out;

@@ -172,6 +172,32 @@ RunSummary simulate(const Model& model, Workspace& ws, const RunControl& control
   return out;
 }
 
+RunSummary run_case(const Model& model, const RunControl& control) {
+  Workspace ws(model);
+  return run_case(model, ws, control);
+}
+
+CaseRunner::CaseRunner() = default;
+CaseRunner::~CaseRunner() = default;
+CaseRunner::CaseRunner(CaseRunner&&) noexcept = default;
+CaseRunner& CaseRunner::operator=(CaseRunner&&) noexcept = default;
+
+Workspace& CaseRunner::workspace_for(const Model& model) {
+  if (ws_)
+    ws_->reset(model);
+  else
+    ws_ = std::make_unique<Workspace>(model);
+  return *ws_;
+}
+
+RunSummary CaseRunner::simulate(const Model& model, const RunControl& control) {
+  return flapline::simulate(model, workspace_for(model), control);
+}
+
+RunSummary CaseRunner::run_case(const Model& model, const RunControl& control) {
+  return flapline::run_case(model, workspace_for(model), control);
+}
+
 RunSummary run_case(const Model& model, Workspace& ws, const RunControl& control) {
   try {
     return simulate(model, ws, control);

@@ -21,6 +21,7 @@
 #include <Eigen/LU>
 
 #include "flapline/aero/aero_model.hpp"
+#include "flapline/aero/state_space.hpp"
 
 namespace flapline {
 
@@ -61,14 +62,7 @@ void influence_block(const HorseshoeGeometry& g, Eigen::Index row0, Eigen::Index
 /// Full influence matrix at time t for the model's span coupling (zero blocks where uncoupled).
 Eigen::MatrixXd influence_matrix(const Model& model, Workspace& ws, double t);
 
-/// Frozen-time state-space form of a lag model at time t: state x = (x₁, x₂) per strip (4N),
-/// input the kinematic w_¾ per strip (2N), output Γ per strip (2N):
-///   ẋ = A x + B w_¾,  Γ = C x + D w_¾.
-/// For the wagner model K = 0.
-struct StateSpace {
-  double time = 0;
-  Eigen::MatrixXd A, B, C, D;
-};
+/// Frozen-time state-space form of a lag model at time t (aero/state_space.hpp).
 StateSpace frozen_state_space(const Model& model, Workspace& ws, double t);
 
 }  // namespace flapline

@@ -8,7 +8,7 @@
 #include <utility>
 #include <vector>
 
-#include "flapline/aero/lifting_line.hpp"
+#include "flapline/aero/state_space.hpp"
 #include "flapline/case/model.hpp"
 #include "flapline/simulation/run_summary.hpp"
 
@@ -17,6 +17,11 @@ namespace flapline::io {
 /// history.csv: one row per output sample (time, pair and per-wing forces and moments in body
 /// axes, power, gait angles).
 std::string history_csv(const RunSummary& summary);
+
+/// The columns of history.csv, and the history as numbers (one vector per column, full
+/// precision) — the same values history.csv prints (%.9g; cycle as an integer, phase %.6f).
+const std::vector<std::string>& history_columns();
+std::vector<std::vector<double>> history_table(const RunSummary& summary);
 
 /// spanwise.csv: per strip at each requested phase and the cycle mean.
 std::string spanwise_csv(const RunSummary& summary);

@@ -1,7 +1,8 @@
 #pragma once
 /// \file
-/// The run: fixed-step RK4 (Boost.Odeint runge_kutta4) over whole cycles until the cycle means
-/// stop changing (DESIGN §5); loads are evaluated at output samples only.
+/// The run on an explicit Workspace (internal: the installed API is simulation/run.hpp): fixed-
+/// step RK4 (Boost.Odeint runge_kutta4) over whole cycles until the cycle means stop changing
+/// (DESIGN §5); loads are evaluated at output samples only.
 
 #include <functional>
 
@@ -9,19 +10,10 @@
 #include "flapline/case/model.hpp"
 #include "flapline/case/stage_kinematics.hpp"
 #include "flapline/case/workspace.hpp"
+#include "flapline/simulation/run.hpp"
 #include "flapline/simulation/run_summary.hpp"
 
 namespace flapline {
-
-/// Optional hooks of a run.
-struct RunControl {
-  /// Called after every cycle with the number of cycles done and the relative change of the
-  /// cycle means (NaN after the first cycle).
-  std::function<void(int cycles_done, double change)> on_cycle;
-  /// False: record no history (studies need only the cycle statistics; every other result is
-  /// the same).
-  bool keep_history = true;
-};
 
 /// One RK4 step (Boost.Odeint runge_kutta4) of ws.state from t to t + dt. Allocation-free once
 /// the stepper has seen the state's size; throws NumericalError on a non-finite state.
@@ -42,7 +34,5 @@ RunSummary simulate(const Model& model, Workspace& ws, const RunControl& control
 /// message; never throws those two. For studies, which record a failure and go on.
 RunSummary run_case(const Model& model, Workspace& ws, const RunControl& control = {});
 
-/// Convenience: builds a Workspace for one run.
-RunSummary simulate(const Model& model, const RunControl& control = {});
 
 }  // namespace flapline

@@ -1,0 +1,298 @@
+// The Python module `flapline._flapline`: thin bindings over flapline::io and flapline::studies.
+// Configs arrive as YAML text (a file's content, or a dict dumped as JSON, which is YAML); the
+// Python package (flapline/__init__.py) wraps these functions with a Pythonic API. Every run and
+// study releases the GIL; studies stop between cases on Ctrl-C.
+#include <pybind11/numpy.h>
+#include <pybind11/pybind11.h>
+#include <pybind11/stl.h>
+
+#include <atomic>
+#include <memory>
+#include <thread>
+
+#include "flapline/flapline.hpp"
+
+namespace py = pybind11;
+using namespace flapline;
+
+namespace {
+
+/// The Python exception class for bad input (set up in the module body; kept alive for good).
+py::handle g_input_error;
+
+[[noreturn]] void raise_input_error(const InputError& e) {
+  py::object err = py::reinterpret_borrow<py::object>(g_input_error)(py::str(e.what()));
+  err.attr("file") = e.file();
+  err.attr("line") = e.line();
+  err.attr("key") = e.key();
+  err.attr("value") = e.value();
+  err.attr("allowed") = e.allowed();
+  err.attr("hint") = e.hint();
+  PyErr_SetObject(g_input_error.ptr(), err.ptr());
+  throw py::error_already_set();
+}
+
+/// Ctrl-C between cases: the main thread (OpenMP's thread 0) looks at Python's signals.
+struct Interrupt {
+  std::thread::id main = std::this_thread::get_id();
+  std::atomic<bool> raised{false};
+  bool check() {
+    if (raised) return true;
+    if (std::this_thread::get_id() != main) return false;
+    py::gil_scoped_acquire gil;
+    if (PyErr_CheckSignals() != 0) {
+      PyErr_Clear();
+      raised = true;
+    }
+    return raised;
+  }
+  void rethrow() const {
+    if (!raised) return;
+    PyErr_SetNone(PyExc_KeyboardInterrupt);
+    throw py::error_already_set();
+  }
+};
+
+studies::CaseBuilderFactory factory_of(const io::CaseLoader& loader) {
+  return [&loader] {
+    auto own = std::make_shared<io::CaseLoader>(loader);
+    return [own](const studies::CaseSpec& c) { return own->build(c); };
+  };
+}
+
+template <class F>
+auto guarded(F&& f) {
+  try {
+    return f();
+  } catch (const InputError& e) {
+    raise_input_error(e);
+  } catch (const NumericalError& e) {
+    PyErr_SetString(PyExc_ArithmeticError, e.what());
+    throw py::error_already_set();
+  }
+}
+
+py::array_t<double> array(const std::vector<double>& v) {
+  py::array_t<double> a(static_cast<py::ssize_t>(v.size()));
+  std::copy(v.begin(), v.end(), a.mutable_data());
+  return a;
+}
+
+/// One run: (summary.json text, history columns, spanwise columns).
+py::tuple run(const std::string& text, const std::string& name, const std::string& base_dir,
+              const std::vector<std::string>& sets) {
+  return guarded([&] {
+    RunSummary s;
+    std::string summary;
+    {
+      py::gil_scoped_release release;
+      const io::CaseLoader loader(text, name, base_dir, sets);
+      const Model model = loader.build({});
+      s = simulate(model);
+      summary = io::summary_json(s);
+    }
+    py::dict history;
+    const std::vector<std::vector<double>> t = io::history_table(s);
+    for (std::size_t k = 0; k < t.size(); ++k) history[py::str(io::history_columns()[k])] = array(t[k]);
+    py::dict span;
+    std::vector<double> phase, strip, radius, fraction, chord, fx, fy, fz, normal, gamma, alpha, ut, wi;
+    std::vector<std::string> wing;
+    std::vector<bool> mean;
+    for (const SpanwiseRow& r : s.spanwise) {
+      mean.push_back(r.cycle_mean);
+      phase.push_back(r.cycle_mean ? std::nan("") : r.phase);
+      wing.emplace_back(to_string(r.side));
+      strip.push_back(r.strip + 1);
+      radius.push_back(r.radius);
+      fraction.push_back(r.span_fraction);
+      chord.push_back(r.chord);
+      fx.push_back(r.force_per_span.x());
+      fy.push_back(r.force_per_span.y());
+      fz.push_back(r.force_per_span.z());
+      normal.push_back(r.normal_force_per_span);
+      gamma.push_back(r.circulation);
+      alpha.push_back(std::isfinite(r.alpha) ? r.alpha / kDegree : std::nan(""));
+      ut.push_back(r.tangential_speed);
+      wi.push_back(r.induced_wash);
+    }
+    span["cycle_mean"] = mean;
+    span["phase"] = array(phase);
+    span["wing"] = wing;
+    span["strip"] = array(strip);
+    span["radius_m"] = array(radius);
+    span["span_fraction"] = array(fraction);
+    span["chord_m"] = array(chord);
+    span["X_per_span_N_m"] = array(fx);
+    span["Y_per_span_N_m"] = array(fy);
+    span["Z_per_span_N_m"] = array(fz);
+    std::vector<double> lift(fz.size());
+    for (std::size_t i = 0; i < fz.size(); ++i) lift[i] = -fz[i];
+    span["lift_per_span_N_m"] = array(lift);
+    span["normal_force_per_span_N_m"] = array(normal);
+    span["circulation_m2_s"] = array(gamma);
+    span["alpha_deg"] = array(alpha);
+    span["tangential_speed_m_s"] = array(ut);
+    span["induced_wash_m_s"] = array(wi);
+    return py::make_tuple(summary, history, span);
+  });
+}
+
+/// A sweep: (column names, rows as lists of cell texts), in case order.
+py::tuple sweep(const std::string& text, const std::string& name, const std::string& base_dir,
+                const std::vector<std::string>& sets, const std::vector<std::string>& vary,
+                const std::string& design, int samples, std::uint64_t seed,
+                const std::string& cases_file, int threads) {
+  return guarded([&] {
+    io::SweepDefinition def;
+    def.config_path = name;
+    def.config_text = text;
+    def.sets = sets;
+    def.vary_specs = vary;
+    def.cases_file = cases_file;
+    const auto kind = from_string<studies::DesignKind>(design);
+    if (!kind || *kind == studies::DesignKind::table)
+      throw InputError("design", "'" + design + "'", "must be one of: grid, one_at_a_time, latin");
+    def.design.kind = *kind;
+    def.design.samples = samples;
+    def.design.seed = seed;
+    std::map<std::size_t, std::string> rows;
+    Interrupt interrupt;
+    {
+      py::gil_scoped_release release;
+      io::complete_definition(def);
+      const io::CaseLoader loader(text, name, base_dir, sets);
+      io::check_sweep_values(def, loader);
+      std::vector<std::size_t> all(def.cases.size());
+      for (std::size_t i = 0; i < all.size(); ++i) all[i] = i;
+      studies::RunnerOptions options;
+      options.threads = threads;
+      options.stop = [&interrupt] { return interrupt.check(); };
+      studies::run_cases(def.cases, all, factory_of(loader), options,
+                         [&](std::size_t i, const RunSummary& s) {
+                           rows[i] = studies::table_row(i, def.columns, def.cases[i], s);
+                         });
+    }
+    interrupt.rethrow();
+    py::list out;
+    for (const auto& [i, row] : rows) out.append(studies::csv_split(row.substr(0, row.size() - 1)));
+    return py::make_tuple(studies::table_columns(def.columns), out);
+  });
+}
+
+std::vector<studies::Parameter> parameters(const io::CaseLoader& loader,
+                                           const std::vector<std::string>& keys) {
+  std::vector<studies::Parameter> out;
+  for (const std::string& k : keys) {
+    studies::Parameter p;
+    p.name = k;
+    const std::optional<double> v = loader.number_at(k);
+    if (!v) throw InputError(k, "(no number)", "the config holds no number at this key path");
+    p.base = *v;
+    out.push_back(p);
+  }
+  return out;
+}
+
+const std::vector<std::string> kInner{"simulation.start=periodic", "simulation.tolerance=1e-9"};
+
+std::vector<std::string> inner(std::vector<std::string> sets) {
+  sets.insert(sets.end(), kInner.begin(), kInner.end());
+  return sets;
+}
+
+/// trim.json text.
+std::string trim(const std::string& text, const std::string& name, const std::string& base_dir,
+                 const std::vector<std::string>& sets,
+                 const std::vector<std::tuple<std::string, double, double>>& free,
+                 const std::vector<std::pair<std::string, double>>& targets, bool balance,
+                 double tolerance, int threads) {
+  return guarded([&] {
+    py::gil_scoped_release release;
+    const io::CaseLoader loader(text, name, base_dir, inner(sets));
+    std::vector<std::string> keys;
+    for (const auto& f : free) keys.push_back(std::get<0>(f));
+    std::vector<studies::Parameter> params = parameters(loader, keys);
+    for (std::size_t i = 0; i < params.size(); ++i) {
+      params[i].low = std::get<1>(free[i]);
+      params[i].high = std::get<2>(free[i]);
+      if (!(params[i].low < params[i].high) || params[i].base < params[i].low ||
+          params[i].base > params[i].high)
+        throw InputError(keys[i], studies::shortest(params[i].base),
+                         "needs low < high with the config's value between them");
+    }
+    std::vector<studies::Target> t;
+    for (const auto& [q, v] : targets) {
+      if (!find_summary_key(q)) throw InputError(q, "(quantity)", "unknown quantity: a key path of summary.json");
+      t.push_back({q, v});
+    }
+    if (balance != t.empty()) throw InputError("targets", "", "give targets or balance=True, not both");
+    studies::TrimOptions o;
+    o.tolerance = tolerance;
+    o.runner.threads = threads;
+    const studies::TrimResult r = studies::trim(params, t, {}, factory_of(loader), o);
+    return io::trim_json(r, params, tolerance, "simulation.start periodic, simulation.tolerance 1e-9");
+  });
+}
+
+/// derivatives.json (and modes.json for modes) text.
+std::string derivatives(const std::string& text, const std::string& name,
+                        const std::string& base_dir, const std::vector<std::string>& sets,
+                        const std::vector<std::string>& keys, bool flight, int threads) {
+  return guarded([&] {
+    py::gil_scoped_release release;
+    const io::CaseLoader loader(text, name, base_dir, inner(sets));
+    std::vector<studies::Parameter> params;
+    if (flight) params = studies::Parameter::flight_state();
+    for (const auto& p : parameters(loader, keys)) params.push_back(p);
+    studies::RunnerOptions o;
+    o.threads = threads;
+    return io::derivatives_json(
+        studies::derivatives(params, studies::derivative_quantities(), {}, factory_of(loader), o));
+  });
+}
+
+std::string modes(const std::string& text, const std::string& name, const std::string& base_dir,
+                  const std::vector<std::string>& sets, const std::vector<std::string>& keys,
+                  int threads) {
+  return guarded([&] {
+    py::gil_scoped_release release;
+    const io::CaseLoader loader(text, name, base_dir, inner(sets));
+    const Model base = loader.build({});
+    if (!base.vehicle())
+      throw InputError("vehicle", "(none)", "flight modes need the vehicle section");
+    std::vector<studies::Parameter> params = studies::Parameter::flight_state();
+    for (const auto& p : parameters(loader, keys)) params.push_back(p);
+    studies::RunnerOptions o;
+    o.threads = threads;
+    const std::vector<std::string> q{"net_mean.X_N", "net_mean.Y_N", "net_mean.Z_N",
+                                     "net_mean.L_roll_Nm", "net_mean.M_pitch_Nm", "net_mean.N_yaw_Nm"};
+    const studies::DerivativeTable t = studies::derivatives(params, q, {}, factory_of(loader), o);
+    studies::LinearModelInput in;
+    in.vehicle = *base.vehicle();
+    in.velocity = base.flight().velocity;
+    in.rates = base.flight().rates;
+    in.force_state = t.value.block(0, 0, 3, 6);
+    in.moment_state = t.value.block(3, 0, 3, 6);
+    in.force_control = t.value.block(0, 6, 3, t.value.cols() - 6);
+    in.moment_control = t.value.block(3, 6, 3, t.value.cols() - 6);
+    const studies::LinearModel lm = studies::linear_model(in);
+    const auto m = studies::flight_modes(lm.A, std::max(base.flight().velocity.norm(), 1.0));
+    std::vector<std::string> units;
+    for (std::size_t j = 6; j < params.size(); ++j) units.push_back(io::parameter_unit(params[j]));
+    return io::modes_json(lm, keys, units, m, {});
+  });
+}
+
+}  // namespace
+
+PYBIND11_MODULE(_flapline, m) {
+  m.doc() = "flapline's C++ core (use the flapline package)";
+  g_input_error = py::object(py::module_::import("flapline.errors").attr("InputError")).release();
+  m.attr("__version__") = kVersion;
+  m.attr("CAUTIONS") = kCautions;
+  m.def("run", &run);
+  m.def("sweep", &sweep);
+  m.def("trim", &trim);
+  m.def("derivatives", &derivatives);
+  m.def("modes", &modes);
+}
