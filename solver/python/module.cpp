@@ -64,6 +64,9 @@ template <class F>
 auto guarded(F&& f) {
   try {
     return f();
+  } catch (const studies::Interrupted&) {
+    PyErr_SetNone(PyExc_KeyboardInterrupt);
+    throw py::error_already_set();
   } catch (const InputError& e) {
     raise_input_error(e);
   } catch (const NumericalError& e) {
@@ -206,6 +209,7 @@ std::string trim(const std::string& text, const std::string& name, const std::st
                  const std::vector<std::tuple<std::string, double, double>>& free,
                  const std::vector<std::pair<std::string, double>>& targets, bool balance,
                  double tolerance, int threads) {
+  Interrupt interrupt;
   return guarded([&] {
     py::gil_scoped_release release;
     const io::CaseLoader loader(text, name, base_dir, inner(sets));
@@ -229,6 +233,7 @@ std::string trim(const std::string& text, const std::string& name, const std::st
     studies::TrimOptions o;
     o.tolerance = tolerance;
     o.runner.threads = threads;
+    o.runner.stop = [&interrupt] { return interrupt.check(); };
     const studies::TrimResult r = studies::trim(params, t, {}, factory_of(loader), o);
     return io::trim_json(r, params, tolerance, "simulation.start periodic, simulation.tolerance 1e-9");
   });
@@ -238,6 +243,7 @@ std::string trim(const std::string& text, const std::string& name, const std::st
 std::string derivatives(const std::string& text, const std::string& name,
                         const std::string& base_dir, const std::vector<std::string>& sets,
                         const std::vector<std::string>& keys, bool flight, int threads) {
+  Interrupt interrupt;
   return guarded([&] {
     py::gil_scoped_release release;
     const io::CaseLoader loader(text, name, base_dir, inner(sets));
@@ -246,6 +252,7 @@ std::string derivatives(const std::string& text, const std::string& name,
     for (const auto& p : parameters(loader, keys)) params.push_back(p);
     studies::RunnerOptions o;
     o.threads = threads;
+    o.stop = [&interrupt] { return interrupt.check(); };
     return io::derivatives_json(
         studies::derivatives(params, studies::derivative_quantities(), {}, factory_of(loader), o));
   });
@@ -254,16 +261,19 @@ std::string derivatives(const std::string& text, const std::string& name,
 std::string modes(const std::string& text, const std::string& name, const std::string& base_dir,
                   const std::vector<std::string>& sets, const std::vector<std::string>& keys,
                   int threads) {
+  Interrupt interrupt;
   return guarded([&] {
     py::gil_scoped_release release;
     const io::CaseLoader loader(text, name, base_dir, inner(sets));
     const Model base = loader.build({});
     if (!base.vehicle())
       throw InputError("vehicle", "(none)", "flight modes need the vehicle section");
+    studies::check_modes_attitude(*base.vehicle());
     std::vector<studies::Parameter> params = studies::Parameter::flight_state();
     for (const auto& p : parameters(loader, keys)) params.push_back(p);
     studies::RunnerOptions o;
     o.threads = threads;
+    o.stop = [&interrupt] { return interrupt.check(); };
     const std::vector<std::string> q{"net_mean.X_N", "net_mean.Y_N", "net_mean.Z_N",
                                      "net_mean.L_roll_Nm", "net_mean.M_pitch_Nm", "net_mean.N_yaw_Nm"};
     const studies::DerivativeTable t = studies::derivatives(params, q, {}, factory_of(loader), o);
@@ -279,7 +289,7 @@ std::string modes(const std::string& text, const std::string& name, const std::s
     const auto m = studies::flight_modes(lm.A, std::max(base.flight().velocity.norm(), 1.0));
     std::vector<std::string> units;
     for (std::size_t j = 6; j < params.size(); ++j) units.push_back(io::parameter_unit(params[j]));
-    return io::modes_json(lm, keys, units, m, {});
+    return io::modes_json(lm, keys, units, m, studies::mode_warnings(m, t.base, base.frequency()));
   });
 }
 

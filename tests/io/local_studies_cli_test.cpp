@@ -89,7 +89,9 @@ TEST_CASE("bad trim, derivatives and vehicle input: one line, exit 2, nothing wr
         Bad{"run " + hv + " --set vehicle.mass=-1", "vehicle.mass"},
         Bad{"run " + hv + " --set vehicle.inertia.xz=1e-7", "positive definite"},
         Bad{"run " + hv + " --set flight.airspeed=5 --set flight.velocity=[1,0,0]", "derived"},
-        Bad{"run " + hi + " --set flight.airspeed=5", "vehicle"}}) {
+        Bad{"run " + hi + " --set flight.airspeed=5", "vehicle"},
+        Bad{"trim " + hv + " --free wing.strips=4:40 --balance", "continuous"},
+        Bad{"modes " + hv + " --set vehicle.attitude.pitch=90", "singular"}}) {
     CAPTURE(b.args);
     std::string log;
     CHECK(test::run_cli(b.args + out, log) == 2);

@@ -63,12 +63,23 @@ studies::Parameter key_parameter(const io::CaseLoader& loader, const std::string
                      "the config holds no number at this key path: give it a value (e.g. --set " +
                          key + "=...)");
   p.base = *base;
-  try {
-    (void)loader.build(studies::CaseSpec{{{key, studies::shortest(p.base), false}}});
-  } catch (const InputError& e) {
-    InputError up = e.rekeyed(e.key());
-    up.locate("command line (" + option + " " + key + ")", 0);
-    throw up;
+  // A continuous number: a small step off the value must be accepted for the key's own sake
+  // (a whole-number key such as wing.strips cannot be differentiated or trimmed).
+  const double step = p.base != 0.0 ? 1e-3 * std::abs(p.base) : 1e-3;
+  for (double v : {p.base, p.base + 0.5 * step}) {
+    try {
+      (void)loader.build(studies::CaseSpec{{{key, studies::shortest(v), false}}});
+    } catch (const InputError& e) {
+      if (e.is_between_keys() || (e.key() != key && key.rfind(e.key() + ".", 0) != 0)) continue;
+      InputError up = v == p.base
+                          ? e.rekeyed(e.key())
+                          : InputError(key, studies::shortest(p.base),
+                                       "must be a continuous number to be " +
+                                           std::string(option == "--free" ? "trimmed" : "differentiated") +
+                                           " (" + e.allowed() + ")");
+      up.locate("command line (" + option + " " + key + ")", 0);
+      throw up;
+    }
   }
   return p;
 }
@@ -116,7 +127,7 @@ int trim_command(const TrimArgs& a) {
   if (!(a.tolerance > 0 && a.tolerance < 1))
     throw InputError("--tolerance", studies::shortest(a.tolerance), "must lie in (0, 1)");
   const io::CaseLoader loader(a.config, with_inner(a.sets), fs::path(a.config).filename().string());
-  const io::CaseLoader document(a.config, a.sets, fs::path(a.config).filename().string());
+  (void)loader.build({});  // the base config's own errors, at their file and line
   std::vector<studies::Parameter> free;
   for (const std::string& f : a.frees) {
     const auto eq = f.find('='), colon = f.rfind(':');
@@ -179,11 +190,12 @@ int trim_command(const TrimArgs& a) {
   if (a.plot && io::gnuplot_available() && !r.history.empty())
     for (auto& [name, content] : io::trim_plot(r)) folder.add(name, content);
   if (r.status == studies::TrimStatus::trimmed) {
+    // The trimmed config carries the inner runs' settings, so that it reproduces the trim.
     const studies::CaseSpec solved = studies::case_at(free, r.values);
     folder.add("trimmed.yaml", "# Trimmed by flapline trim (" + std::string(to_string(r.status)) +
                                    ", scaled residual " + studies::shortest(r.residual) +
-                                   ") from " + a.config + "\n" + document.document(solved));
-    const Model model = document.build(solved);
+                                   ") from " + a.config + "\n" + loader.document(solved));
+    const Model model = loader.build(solved);
     const RunSummary s = simulate(model);
     write_run(folder, s, model, a.plot, plot_note);
   }
@@ -208,6 +220,16 @@ int trim_command(const TrimArgs& a) {
     if (!plot_note.empty()) std::cout << plot_note << "\n";
     std::cout << kCautions << "\n";
   }
+  if (r.status != studies::TrimStatus::trimmed) {
+    // One line, also with --quiet: the outcome, the active bounds, the closest values reached.
+    std::string line = "flapline: trim " + std::string(to_string(r.status)) + ": " + r.message;
+    for (const auto& b : r.active_bounds) line += "; " + b;
+    for (std::size_t i = 0; i < r.quantities.size() && r.achieved.size(); ++i)
+      line += "; closest " + r.quantities[i] + " = " +
+              studies::shortest(r.achieved(static_cast<Eigen::Index>(i))) + " (target " +
+              studies::shortest(r.targets(static_cast<Eigen::Index>(i))) + ")";
+    std::cerr << line << "\n";
+  }
   switch (r.status) {
     case studies::TrimStatus::trimmed:
       return 0;
@@ -218,7 +240,6 @@ int trim_command(const TrimArgs& a) {
     case studies::TrimStatus::failed:
       break;
   }
-  std::cerr << "flapline: trim stopped: " << r.message << "\n";
   return kExitNumerical;
 }
 
@@ -258,6 +279,7 @@ void print_table(const studies::DerivativeTable& t) {
 
 int derivatives_command(const DerivativesArgs& a) {
   const io::CaseLoader loader(a.config, with_inner(a.sets), fs::path(a.config).filename().string());
+  (void)loader.build({});  // the base config's own errors, at their file and line
   std::vector<studies::Parameter> params;
   const studies::DerivativeTable t =
       derivative_table(a, loader, studies::derivative_quantities(), false, params);
@@ -288,6 +310,7 @@ int modes_command(const DerivativesArgs& a) {
     throw InputError("modes", "(no vehicle)",
                      "flight modes need the vehicle section (mass, inertia, attitude)",
                      "see configs/README.md, 'vehicle'");
+  studies::check_modes_attitude(*base.vehicle());
   const std::vector<std::string> quantities{"net_mean.X_N",         "net_mean.Y_N",
                                             "net_mean.Z_N",         "net_mean.L_roll_Nm",
                                             "net_mean.M_pitch_Nm", "net_mean.N_yaw_Nm"};
@@ -305,22 +328,7 @@ int modes_command(const DerivativesArgs& a) {
   const studies::LinearModel lm = studies::linear_model(in);
   const double vscale = std::max(base.flight().velocity.norm(), 1.0);
   const std::vector<studies::Mode> modes = studies::flight_modes(lm.A, vscale);
-  std::vector<std::string> warnings;
-  const VehicleBalance& vb = *t.base.vehicle;
-  const double residual = std::max(vb.steady_residual.force.cwiseAbs().maxCoeff() / vb.weight,
-                                   vb.steady_residual.moment.cwiseAbs().maxCoeff() /
-                                       (vb.weight * t.base.derived.span));
-  if (residual > 1e-6)
-    warnings.push_back("the reference state is not trimmed (steady-flight residual " +
-                       studies::shortest(residual) +
-                       " of the weight); run flapline trim --balance first");
-  const double flap = 2.0 * kPi * base.frequency();
-  for (const auto& m : modes)
-    if (m.natural_frequency > 0.1 * flap)
-      warnings.push_back("a " + m.family + " mode (|lambda| = " +
-                         studies::shortest(m.natural_frequency) +
-                         " rad/s) is not slow compared with the wing-beat (2 pi f = " +
-                         studies::shortest(flap) + " rad/s): the averaging assumption is weak");
+  const std::vector<std::string> warnings = studies::mode_warnings(modes, t.base, base.frequency());
   std::vector<std::string> inputs, input_units;
   for (std::size_t j = 6; j < t.parameters.size(); ++j) {
     inputs.push_back(t.parameters[j].name);

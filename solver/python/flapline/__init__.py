@@ -26,8 +26,19 @@ __all__ = ["run", "sweep", "trim", "derivatives", "modes", "RunResult", "InputEr
            "CAUTIONS", "__version__"]
 
 
+def _plain(value):
+    """NumPy scalars and arrays as Python numbers and lists (JSON-serialisable)."""
+    if isinstance(value, np.ndarray):
+        return value.tolist()
+    if isinstance(value, np.generic):
+        return value.item()
+    raise TypeError(f"{type(value).__name__} is not a config value")
+
+
 def _yaml_value(value):
     """A Python value as the YAML text of an override (numbers in shortest round-trip form)."""
+    if isinstance(value, np.ndarray):
+        value = value.tolist()
     if isinstance(value, bool):
         return "true" if value else "false"
     if isinstance(value, (int, np.integer)):
@@ -39,14 +50,23 @@ def _yaml_value(value):
         return repr(float(value))
     if isinstance(value, str):
         return value
-    return json.dumps(value)  # lists and maps: JSON is YAML
+    try:
+        return json.dumps(value, default=_plain)  # lists and maps: JSON is YAML
+    except TypeError as e:
+        raise InputError(f"override value {value!r}: {e}", value=repr(value),
+                         allowed="numbers, text, booleans, lists and maps") from None
 
 
 def _source(config, overrides):
     """(YAML text, name in messages, folder for table files, --set strings)."""
     sets = [f"{k}={_yaml_value(v)}" for k, v in (overrides or {}).items()]
     if isinstance(config, dict):
-        return json.dumps(config), "(dict config)", os.getcwd(), sets
+        # JSON is YAML; a table_file in a dict config is relative to the current folder.
+        try:
+            text = json.dumps(config, default=_plain)
+        except TypeError as e:
+            raise InputError(f"dict config: {e}", allowed="numbers, text, booleans, lists and maps") from None
+        return text, "(dict config)", os.getcwd(), sets
     path = os.fspath(config)
     try:
         with open(path, "r", encoding="utf-8") as f:

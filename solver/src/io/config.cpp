@@ -864,6 +864,12 @@ std::optional<double> CaseLoader::number_at(const std::string& key) const {
     }
   };
   if (auto n = scalar(key)) return as_number(*n);
+  // Documented defaults of the vehicle's attitude and of a flight condition (0) when the section
+  // that holds them is there.
+  for (const char* k : {"vehicle.attitude.roll", "vehicle.attitude.pitch"})
+    if (key == k && scalar("vehicle")) return 0.0;
+  for (const char* k : {"flight.flight_path_angle", "flight.sideslip", "flight.turn_rate"})
+    if (key == k && scalar("flight.airspeed")) return 0.0;
   // A side's key inherits the shared gait block's value.
   for (const char* side : {"gait.left.", "gait.right."})
     if (key.rfind(side, 0) == 0)

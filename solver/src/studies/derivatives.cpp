@@ -16,7 +16,7 @@ std::vector<std::string> derivative_quantities() {
 double derivative_step(const Parameter& p, double speed, double rate) {
   switch (p.kind) {
     case Parameter::Kind::key:
-      return 1e-3 * std::max(std::abs(p.base), 1.0);
+      return p.base != 0.0 ? 1e-3 * std::abs(p.base) : 1e-3;
     case Parameter::Kind::velocity:
       return 1e-3 * std::max(speed, 1.0);
     case Parameter::Kind::rate:

@@ -46,8 +46,12 @@ std::vector<RunSummary> evaluate(const std::vector<CaseSpec>& cases,
   std::vector<RunSummary> out(cases.size());
   std::vector<std::size_t> all(cases.size());
   for (std::size_t i = 0; i < all.size(); ++i) all[i] = i;
-  run_cases(cases, all, factory, options,
-            [&out](std::size_t i, const RunSummary& s) { out[i] = s; });
+  std::size_t done = 0;
+  run_cases(cases, all, factory, options, [&](std::size_t i, const RunSummary& s) {
+    out[i] = s;
+    ++done;
+  });
+  if (done < cases.size()) throw Interrupted();  // stopped: a partial set is no result
   return out;
 }
 

@@ -5,9 +5,18 @@
 #include <algorithm>
 #include <cmath>
 #include <complex>
+#include <cstdio>
+
+#include "flapline/common/errors.hpp"
 
 namespace flapline::studies {
 namespace {
+
+std::string text_deg(double rad) {
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%.6g", rad * 180.0 / M_PI);
+  return buf;
+}
 
 Eigen::Matrix3d cross_matrix(const Eigen::Vector3d& a) {
   Eigen::Matrix3d m;
@@ -119,6 +128,40 @@ std::vector<Mode> flight_modes(const Eigen::Matrix<double, 8, 8>& A, double velo
     analyse({0, 1, 2, 3, 4, 5, 6, 7}, "coupled");
   }
   return out;
+}
+
+std::vector<std::string> mode_warnings(const std::vector<Mode>& modes, const RunSummary& base,
+                                       double frequency) {
+  std::vector<std::string> out;
+  auto text = [](double v) {
+    char buf[32];
+    std::snprintf(buf, sizeof buf, "%.4g", v);
+    return std::string(buf);
+  };
+  if (base.vehicle) {
+    const VehicleBalance& vb = *base.vehicle;
+    Eigen::Matrix<double, 6, 1> r;
+    r << vb.steady_residual.force / vb.weight,
+        vb.steady_residual.moment / (vb.weight * base.derived.span);
+    const double rms = std::sqrt(r.squaredNorm() / 6.0);
+    if (rms > 1e-6)
+      out.push_back("the reference state is not trimmed (scaled steady-flight residual " +
+                    text(rms) + "); run flapline trim --balance first");
+  }
+  const double flap = 2.0 * M_PI * frequency;
+  for (const Mode& m : modes)
+    if (m.natural_frequency > 0.1 * flap)
+      out.push_back("a " + m.family + " mode (|lambda| = " + text(m.natural_frequency) +
+                    " rad/s) is not slow compared with the wing-beat (2 pi f = " + text(flap) +
+                    " rad/s): the averaging assumption is weak");
+  return out;
+}
+
+void check_modes_attitude(const VehicleSpec& v) {
+  if (std::abs(std::abs(v.pitch) - 0.5 * M_PI) < M_PI / 180.0)
+    throw InputError("vehicle.attitude.pitch", text_deg(v.pitch),
+                     "must stay 1 deg or more away from +-90 deg for flapline modes (the "
+                     "Euler-angle kinematics are singular there)");
 }
 
 }  // namespace flapline::studies

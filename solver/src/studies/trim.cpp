@@ -59,20 +59,19 @@ TrimResult trim(const std::vector<Parameter>& free, const std::vector<Target>& t
     return x;
   };
   TrimResult out;
+  // Runs at points; a failed run (a rule between keys, a blow-up) comes back with its status.
   auto run = [&](const std::vector<Eigen::VectorXd>& points) {
     std::vector<CaseSpec> cases;
     for (const Eigen::VectorXd& zz : points) cases.push_back(case_at(free, values_of(zz), base));
     out.runs += static_cast<int>(cases.size());
-    std::vector<RunSummary> s = evaluate(cases, factory, options.runner);
-    for (const RunSummary& r : s)
-      if (!has_results(r.status))
-        throw InputError("trim", std::string(to_string(r.status)), r.message);
-    return s;
+    return evaluate(cases, factory, options.runner);
   };
 
   try {
-    // The base run sets the scales.
+    // The base run sets the scales; only its failure ends the trim.
     RunSummary current = run({z}).front();
+    if (!has_results(current.status))
+      throw InputError("trim", std::string(to_string(current.status)), current.message);
     Residuals res;
     res.balance = targets.empty();
     if (res.balance) {
@@ -138,9 +137,20 @@ TrimResult trim(const std::vector<Parameter>& free, const std::vector<Target>& t
       Eigen::MatrixXd J(r0.size(), n);
       std::size_t k = 0;
       for (Eigen::Index i = 0; i < n; ++i) {
-        const auto [plus, minus] = offsets[static_cast<std::size_t>(i)];
-        const Eigen::VectorXd rp = plus > 0.0 ? res.scaled(s[k++]) : r0;
-        const Eigen::VectorXd rm = minus > 0.0 ? res.scaled(s[k++]) : r0;
+        auto [plus, minus] = offsets[static_cast<std::size_t>(i)];
+        // A side whose run fails (the model refuses that point) gives a one-sided difference.
+        const RunSummary* sp = plus > 0.0 ? &s[k++] : nullptr;
+        const RunSummary* sm = minus > 0.0 ? &s[k++] : nullptr;
+        if (sp && !has_results(sp->status)) sp = nullptr, plus = 0.0;
+        if (sm && !has_results(sm->status)) sm = nullptr, minus = 0.0;
+        if (plus + minus == 0.0) {
+          const RunSummary& bad = s[k - 1];
+          throw InputError("trim", std::string(to_string(bad.status)),
+                           "no Jacobian step around the current point runs for " +
+                               free[static_cast<std::size_t>(i)].name + ": " + bad.message);
+        }
+        const Eigen::VectorXd rp = sp ? res.scaled(*sp) : r0;
+        const Eigen::VectorXd rm = sm ? res.scaled(*sm) : r0;
         J.col(i) = (rp - rm) / (plus + minus);
       }
       return J;
@@ -178,8 +188,10 @@ TrimResult trim(const std::vector<Parameter>& free, const std::vector<Target>& t
           break;
         }
         RunSummary trial = run({z_new}).front();
-        const Eigen::VectorXd r_new = res.scaled(trial);
-        if (r_new.squaredNorm() < r.squaredNorm()) {
+        // A point the model refuses is a rejected step, like one that does not improve.
+        const bool ran = has_results(trial.status);
+        const Eigen::VectorXd r_new = ran ? res.scaled(trial) : r;
+        if (ran && r_new.squaredNorm() < r.squaredNorm()) {
           z = z_new;
           r = r_new;
           current = std::move(trial);
@@ -223,6 +235,10 @@ TrimResult trim(const std::vector<Parameter>& free, const std::vector<Target>& t
       out.status = TrimStatus::not_reachable;
       out.message = "target not reachable within the bounds (scaled residual " +
                     shortest(out.residual) + ")";
+    } else if (res.target.size() > n && (J.transpose() * r).norm() <= 1e-6 * std::max(r.norm(), 1e-300)) {
+      out.status = TrimStatus::not_reachable;
+      out.message = "least-squares minimum above the tolerance (scaled residual " +
+                    shortest(out.residual) + "): more targets than the free keys can meet";
     } else {
       out.status = TrimStatus::not_converged;
       out.message = "no convergence after " + std::to_string(out.iterations) +

@@ -7,8 +7,8 @@
 /// its estimate exceeds 1 % of |D| plus an absolute floor (1e-9 of the quantity's scale per unit
 /// step), so entries that are zero by symmetry are not flagged.
 ///
-/// Steps h: a config key 1e-3·max(|value|, 1) in its YAML unit (deg, Hz, m, …); u, v, w
-/// 1e-3·max(|V|, 1) m/s; p, q, r 1e-3·max(|ω|, 1) rad/s.
+/// Steps h: a config key 1e-3·|value| in its YAML unit (deg, Hz, m, …), 1e-3 of the unit when
+/// the value is 0; u, v, w 1e-3·max(|V|, 1) m/s; p, q, r 1e-3 rad/s.
 
 #include <string>
 #include <vector>

@@ -33,7 +33,8 @@ struct Parameter {
 CaseSpec case_at(const std::vector<Parameter>& params, const Eigen::VectorXd& x,
                  const CaseSpec& base = {});
 
-/// Run the cases, in parallel; the summaries in the cases' order.
+/// Run the cases, in parallel; the summaries in the cases' order. Throws Interrupted when
+/// options.stop ended the study early.
 std::vector<RunSummary> evaluate(const std::vector<CaseSpec>& cases,
                                  const CaseBuilderFactory& factory, const RunnerOptions& options);
 

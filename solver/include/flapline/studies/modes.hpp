@@ -16,6 +16,7 @@
 #include <Eigen/Core>
 
 #include "flapline/case/vehicle.hpp"
+#include "flapline/simulation/run_summary.hpp"
 
 namespace flapline::studies {
 
@@ -58,5 +59,15 @@ struct Mode {
 /// `velocity_scale` (m/s) weighs the eigenvector parts (velocities per scale, rates per
 /// scale/g, angles in rad).
 std::vector<Mode> flight_modes(const Eigen::Matrix<double, 8, 8>& A, double velocity_scale);
+
+/// Warnings about a modes analysis: the reference state is not trimmed (RMS of the scaled
+/// steady-flight residual — forces per weight, moments per weight·span — above 1e-6, as trim
+/// measures it), and modes with |λ| above 2πf/10 (not slow compared with the wing-beat).
+std::vector<std::string> mode_warnings(const std::vector<Mode>& modes, const RunSummary& base,
+                                       double frequency);
+
+/// Refuses (InputError on vehicle.attitude.pitch) a pitch within 1° of ±90°, where the
+/// Euler-angle kinematics are singular.
+void check_modes_attitude(const VehicleSpec& v);
 
 }  // namespace flapline::studies

@@ -8,6 +8,7 @@
 
 #include <cstddef>
 #include <functional>
+#include <stdexcept>
 #include <vector>
 
 #include "flapline/case/model.hpp"
@@ -38,6 +39,13 @@ using CaseDone = std::function<void(std::size_t index, const RunSummary& summary
 void run_cases(const std::vector<CaseSpec>& cases, const std::vector<std::size_t>& indices,
                const CaseBuilderFactory& factory, const RunnerOptions& options,
                const CaseDone& done);
+
+/// A study stopped by RunnerOptions::stop before all its cases ran (studies that need every
+/// case — trim, derivatives — throw it; sweeps keep what finished).
+class Interrupted : public std::runtime_error {
+ public:
+  Interrupted() : std::runtime_error("interrupted") {}
+};
 
 /// Worker threads a study uses by default: the cores available to this process.
 int default_threads();
