@@ -268,28 +268,14 @@ std::string modes(const std::string& text, const std::string& name, const std::s
     const Model base = loader.build({});
     if (!base.vehicle())
       throw InputError("vehicle", "(none)", "flight modes need the vehicle section");
-    studies::check_modes_attitude(*base.vehicle());
-    std::vector<studies::Parameter> params = studies::Parameter::flight_state();
-    for (const auto& p : parameters(loader, keys)) params.push_back(p);
     studies::RunnerOptions o;
     o.threads = threads;
     o.stop = [&interrupt] { return interrupt.check(); };
-    const std::vector<std::string> q{"net_mean.X_N", "net_mean.Y_N", "net_mean.Z_N",
-                                     "net_mean.L_roll_Nm", "net_mean.M_pitch_Nm", "net_mean.N_yaw_Nm"};
-    const studies::DerivativeTable t = studies::derivatives(params, q, {}, factory_of(loader), o);
-    studies::LinearModelInput in;
-    in.vehicle = *base.vehicle();
-    in.velocity = base.flight().velocity;
-    in.rates = base.flight().rates;
-    in.force_state = t.value.block(0, 0, 3, 6);
-    in.moment_state = t.value.block(3, 0, 3, 6);
-    in.force_control = t.value.block(0, 6, 3, t.value.cols() - 6);
-    in.moment_control = t.value.block(3, 6, 3, t.value.cols() - 6);
-    const studies::LinearModel lm = studies::linear_model(in);
-    const auto m = studies::flight_modes(lm.A, std::max(base.flight().velocity.norm(), 1.0));
+    const std::vector<studies::Parameter> controls = parameters(loader, keys);
+    const studies::ModesStudy m = studies::modes_study(base, controls, factory_of(loader), o);
     std::vector<std::string> units;
-    for (std::size_t j = 6; j < params.size(); ++j) units.push_back(io::parameter_unit(params[j]));
-    return io::modes_json(lm, keys, units, m, studies::mode_warnings(m, t.base, base.frequency()));
+    for (const auto& p : controls) units.push_back(io::parameter_unit(p));
+    return io::modes_json(m.linear, keys, units, m.modes, m.warnings);
   });
 }
 

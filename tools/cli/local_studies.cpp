@@ -248,8 +248,8 @@ namespace {
 /// Derivatives of `quantities` for --param keys (and the flight state).
 studies::DerivativeTable derivative_table(const DerivativesArgs& a, const io::CaseLoader& loader,
                                           const std::vector<std::string>& quantities,
-                                          bool flight_first, std::vector<studies::Parameter>& params) {
-  if (flight_first || a.flight) params = studies::Parameter::flight_state();
+                                          std::vector<studies::Parameter>& params) {
+  if (a.flight) params = studies::Parameter::flight_state();
   for (const std::string& k : a.params) {
     for (const auto& p : params)
       if (p.name == k) throw InputError("--param " + k, "'" + k + "'", "each key may be given once");
@@ -282,7 +282,7 @@ int derivatives_command(const DerivativesArgs& a) {
   (void)loader.build({});  // the base config's own errors, at their file and line
   std::vector<studies::Parameter> params;
   const studies::DerivativeTable t =
-      derivative_table(a, loader, studies::derivative_quantities(), false, params);
+      derivative_table(a, loader, studies::derivative_quantities(), params);
   const fs::path dir = a.out.empty()
                            ? fs::path("results") / (fs::path(a.config).stem().string() + "_derivatives")
                            : fs::path(a.out);
@@ -310,29 +310,23 @@ int modes_command(const DerivativesArgs& a) {
     throw InputError("modes", "(no vehicle)",
                      "flight modes need the vehicle section (mass, inertia, attitude)",
                      "see configs/README.md, 'vehicle'");
-  studies::check_modes_attitude(*base.vehicle());
-  const std::vector<std::string> quantities{"net_mean.X_N",         "net_mean.Y_N",
-                                            "net_mean.Z_N",         "net_mean.L_roll_Nm",
-                                            "net_mean.M_pitch_Nm", "net_mean.N_yaw_Nm"};
-  std::vector<studies::Parameter> params;
-  const studies::DerivativeTable t = derivative_table(a, loader, quantities, true, params);
-  studies::LinearModelInput in;
-  in.vehicle = *base.vehicle();
-  in.velocity = base.flight().velocity;
-  in.rates = base.flight().rates;
-  in.force_state = t.value.block(0, 0, 3, 6);
-  in.moment_state = t.value.block(3, 0, 3, 6);
-  const Eigen::Index k = t.value.cols() - 6;
-  in.force_control = t.value.block(0, 6, 3, k);
-  in.moment_control = t.value.block(3, 6, 3, k);
-  const studies::LinearModel lm = studies::linear_model(in);
-  const double vscale = std::max(base.flight().velocity.norm(), 1.0);
-  const std::vector<studies::Mode> modes = studies::flight_modes(lm.A, vscale);
-  const std::vector<std::string> warnings = studies::mode_warnings(modes, t.base, base.frequency());
+  std::vector<studies::Parameter> controls;
+  for (const std::string& k : a.params) {
+    for (const auto& p : controls)
+      if (p.name == k) throw InputError("--param " + k, "'" + k + "'", "each key may be given once");
+    controls.push_back(key_parameter(loader, k, "--param"));
+  }
+  studies::RunnerOptions options;
+  options.threads = a.threads;
+  const studies::ModesStudy study = studies::modes_study(base, controls, factory_of(loader), options);
+  const studies::DerivativeTable& t = study.derivatives;
+  const studies::LinearModel& lm = study.linear;
+  const std::vector<studies::Mode>& modes = study.modes;
+  const std::vector<std::string>& warnings = study.warnings;
   std::vector<std::string> inputs, input_units;
-  for (std::size_t j = 6; j < t.parameters.size(); ++j) {
-    inputs.push_back(t.parameters[j].name);
-    input_units.push_back(io::parameter_unit(t.parameters[j]));
+  for (const auto& p : controls) {
+    inputs.push_back(p.name);
+    input_units.push_back(io::parameter_unit(p));
   }
   const fs::path dir =
       a.out.empty() ? fs::path("results") / (fs::path(a.config).stem().string() + "_modes")

@@ -157,6 +157,32 @@ std::vector<std::string> mode_warnings(const std::vector<Mode>& modes, const Run
   return out;
 }
 
+ModesStudy modes_study(const Model& base, const std::vector<Parameter>& controls,
+                       const CaseBuilderFactory& factory, const RunnerOptions& options) {
+  check_modes_attitude(*base.vehicle());
+  std::vector<Parameter> params = Parameter::flight_state();
+  params.insert(params.end(), controls.begin(), controls.end());
+  const std::vector<std::string> q{"net_mean.X_N",         "net_mean.Y_N",
+                                   "net_mean.Z_N",         "net_mean.L_roll_Nm",
+                                   "net_mean.M_pitch_Nm", "net_mean.N_yaw_Nm"};
+  ModesStudy out;
+  out.derivatives = derivatives(params, q, {}, factory, options);
+  const DerivativeTable& t = out.derivatives;
+  LinearModelInput in;
+  in.vehicle = *base.vehicle();
+  in.velocity = base.flight().velocity;
+  in.rates = base.flight().rates;
+  in.force_state = t.value.block(0, 0, 3, 6);
+  in.moment_state = t.value.block(3, 0, 3, 6);
+  const Eigen::Index k = t.value.cols() - 6;
+  in.force_control = t.value.block(0, 6, 3, k);
+  in.moment_control = t.value.block(3, 6, 3, k);
+  out.linear = linear_model(in);
+  out.modes = flight_modes(out.linear.A, std::max(base.flight().velocity.norm(), 1.0));
+  out.warnings = mode_warnings(out.modes, t.base, base.frequency());
+  return out;
+}
+
 void check_modes_attitude(const VehicleSpec& v) {
   if (std::abs(std::abs(v.pitch) - 0.5 * M_PI) < M_PI / 180.0)
     throw InputError("vehicle.attitude.pitch", text_deg(v.pitch),

@@ -71,3 +71,23 @@ std::vector<std::string> mode_warnings(const std::vector<Mode>& modes, const Run
 void check_modes_attitude(const VehicleSpec& v);
 
 }  // namespace flapline::studies
+
+#include "flapline/case/model.hpp"
+#include "flapline/studies/derivatives.hpp"
+
+namespace flapline::studies {
+
+/// A whole modes analysis at the flight state of `base` (which must have a vehicle): the
+/// stability derivatives of the net mean wrench (u … r) and the control derivatives of
+/// `controls`, the linear model, its modes and the warnings. Throws InputError for a pitch near
+/// ±90° or a failing base run; Interrupted when stopped.
+struct ModesStudy {
+  DerivativeTable derivatives;  ///< columns u, v, w, p, q, r, then the controls
+  LinearModel linear;
+  std::vector<Mode> modes;
+  std::vector<std::string> warnings;
+};
+ModesStudy modes_study(const Model& base, const std::vector<Parameter>& controls,
+                       const CaseBuilderFactory& factory, const RunnerOptions& options);
+
+}  // namespace flapline::studies
