@@ -36,13 +36,11 @@ const AeroModel& aero_model(ModelKind kind) {
 const AeroModel& attach_aero(const Model& model, Workspace& ws) {
   assert(ws.built_for(model) && "a Workspace serves the Model it was built or reset for");
   const AeroModel& aero = aero_model(model);
-  if (ws.state.size() != aero.state_size(model) || (!ws.aero_scratch && ws.retired_scratch) ||
-      (ws.aero_scratch && ws.aero_scratch->kind != aero.kind())) {
+  if (!ws.aero_attached) {
     ws.state.setZero(aero.state_size(model));
-    std::unique_ptr<AeroScratch> old =
-        ws.aero_scratch ? std::move(ws.aero_scratch) : std::move(ws.retired_scratch);
-    ws.aero_scratch = aero.make_scratch(model, std::move(old));
+    ws.aero_scratch = aero.make_scratch(model, std::move(ws.aero_scratch));
     if (ws.aero_scratch) ws.aero_scratch->kind = aero.kind();
+    ws.aero_attached = true;
   }
   return aero;
 }

@@ -36,6 +36,7 @@ void Workspace::allocate(const Model& model) {
   sections.assign(static_cast<std::size_t>(n), SectionState{});
   loads.resize(n);
   state.resize(0);
+  aero_attached = false;
   const Eigen::Index slots = 2 * model.simulation().steps_per_cycle;
   const double bytes = 2.0 * 8.0 * static_cast<double>(n) * static_cast<double>(slots);
   const bool lag_model = model.aero_options().kind != ModelKind::quasi_steady;
@@ -55,8 +56,7 @@ void Workspace::allocate(const Model& model) {
 }
 
 void Workspace::reset(const Model& model) {
-  // The old aero buffers go to the next attach_aero, which reuses what fits and clears it.
-  if (aero_scratch) retired_scratch = std::move(aero_scratch);
+  // aero_scratch stays: the next attach_aero hands it to make_scratch, which reuses what fits.
   allocate(model);
 }
 

@@ -13,14 +13,14 @@ std::vector<std::string> derivative_quantities() {
           "power.actuator_mean_W"};
 }
 
-double derivative_step(const Parameter& p, double speed, double rate) {
+double derivative_step(const Parameter& p, double speed) {
   switch (p.kind) {
     case Parameter::Kind::key:
       return p.base != 0.0 ? 1e-3 * std::abs(p.base) : 1e-3;
     case Parameter::Kind::velocity:
       return 1e-3 * std::max(speed, 1.0);
     case Parameter::Kind::rate:
-      return 1e-3 * std::max(rate, 1.0);
+      return 1e-3;
   }
   return 1e-3;
 }
@@ -44,13 +44,11 @@ DerivativeTable derivatives(const std::vector<Parameter>& params,
     throw InputError(t.base.error_key.empty() ? "derivatives" : t.base.error_key,
                      std::string(to_string(t.base.status)), t.base.message);
   const double speed = t.base.derived.airspeed;
-  double rate = 0.0;  // |ω| is not in the summary; the flight-state offsets start from it
-  (void)rate;
 
   // Four cases per parameter: x ± h, x ± h/2.
   std::vector<CaseSpec> cases;
   for (Eigen::Index j = 0; j < n; ++j) {
-    const double h = derivative_step(params[static_cast<std::size_t>(j)], speed, 1.0);
+    const double h = derivative_step(params[static_cast<std::size_t>(j)], speed);
     t.step.push_back(h);
     for (double d : {h, -h, 0.5 * h, -0.5 * h}) {
       Eigen::VectorXd x = x0;

@@ -58,8 +58,7 @@ LinearModel linear_model(const LinearModelInput& in) {
   out.A.block<3, 3>(3, 3) =
       Iinv * (in.moment_state.rightCols<3>() - (cross_matrix(w) * I - cross_matrix(I * w)));
   // Euler-angle kinematics.
-  const double p = w.x(), q = w.y(), r = w.z();
-  (void)p;
+  const double q = w.y(), r = w.z();
   const double t = std::tan(th), c2 = std::cos(th) * std::cos(th);
   out.A(6, 3) = 1.0;
   out.A(6, 4) = std::sin(phi) * t;

@@ -3,14 +3,13 @@
 #include <atomic>
 #include <exception>
 #include <mutex>
-#include <optional>
 
 #ifdef FLAPLINE_WITH_OPENMP
 #include <omp.h>
 #endif
 
 #include "flapline/common/errors.hpp"
-#include "flapline/simulation/integrate.hpp"
+#include "flapline/simulation/run.hpp"
 
 namespace flapline::studies {
 
@@ -19,14 +18,6 @@ int default_threads() {
   return omp_get_num_procs();
 #else
   return 1;
-#endif
-}
-
-bool parallel_build() {
-#ifdef FLAPLINE_WITH_OPENMP
-  return true;
-#else
-  return false;
 #endif
 }
 
@@ -41,14 +32,14 @@ void run_cases(const std::vector<CaseSpec>& cases, const std::vector<std::size_t
   control.keep_history = options.keep_history;
   const long count = static_cast<long>(indices.size());
 
-  // The body of one worker: its own builder and Workspace.
+  // The body of one worker: its own builder and run buffers (a CaseRunner resets them per case).
   auto work = [&](auto&& next_index) {
     CaseBuilder build;
     {
       std::lock_guard<std::mutex> lock(factory_mutex);
       build = factory();
     }
-    std::optional<Workspace> ws;
+    CaseRunner runner;
     for (long j; (j = next_index()) >= 0;) {
       if (stopping.load() || (options.stop && options.stop())) {
         stopping = true;
@@ -59,11 +50,7 @@ void run_cases(const std::vector<CaseSpec>& cases, const std::vector<std::size_t
       try {
         try {
           const Model model = build(cases[index]);
-          if (ws)
-            ws->reset(model);
-          else
-            ws.emplace(model);
-          summary = run_case(model, *ws, control);
+          summary = runner.run_case(model, control);
         } catch (const InputError& e) {
           summary.status = RunStatus::input_error;
           summary.message = e.what();

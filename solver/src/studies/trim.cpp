@@ -158,7 +158,6 @@ TrimResult trim(const std::vector<Parameter>& free, const std::vector<Target>& t
 
     double mu = 1e-3;
     Eigen::MatrixXd J = jacobian(z, r);
-    Eigen::VectorXd z_of_J = z;
     for (out.iterations = 0; out.iterations < options.max_iterations;) {
       if (rms(r) <= 1e-14) break;  // round-off
       const Eigen::VectorXd g = J.transpose() * r;
@@ -205,10 +204,8 @@ TrimResult trim(const std::vector<Parameter>& free, const std::vector<Target>& t
       out.history.push_back(rms(r));
       if (options.on_iteration) options.on_iteration(out.iterations, rms(r));
       if (!accepted || tiny) break;
-      J = jacobian(z, r);
-      z_of_J = z;
+      J = jacobian(z, r);  // every exit from the loop leaves J at the final z
     }
-    if (z_of_J != z) J = jacobian(z, r);
 
     out.values = values_of(z);
     out.achieved = res.achieved(current);

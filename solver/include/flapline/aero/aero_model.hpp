@@ -59,7 +59,8 @@ inline const AeroModel& aero_model(const Model& model) {
 }
 
 /// Make `ws` ready for the aerodynamic model of `model`: size the lag states (zero) and build the
-/// model's scratch, once per Workspace build or reset (a no-op afterwards). Returns the model.
+/// model's scratch, once per Workspace build or reset (a no-op afterwards; ws.aero_attached).
+/// Returns the model.
 /// simulate() calls it; call it yourself before using an AeroModel on a fresh Workspace.
 const AeroModel& attach_aero(const Model& model, Workspace& ws);
 

@@ -78,10 +78,11 @@ class Workspace {
   StripLoads loads;
   Eigen::VectorXd state;  ///< lag states (sized by attach_aero)
   std::unique_ptr<StepperSlot> stepper;  ///< RK4 with its buffers (case/stepper.hpp)
-  /// The aero model's buffers; null until attach_aero, and after reset (which hands the old one
-  /// to the next make_scratch through `retired_scratch`, so large caches are reused).
+  /// The aero model's buffers (null for a model that needs none). attach_aero builds them once
+  /// per build or reset, handing the previous ones to make_scratch so large caches are reused.
   std::unique_ptr<AeroScratch> aero_scratch;
-  std::unique_ptr<AeroScratch> retired_scratch;
+  /// False after a build or reset until attach_aero has sized the states and the scratch.
+  bool aero_attached = false;
 
  private:
   const Model* model_ = nullptr;

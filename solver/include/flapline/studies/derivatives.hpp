@@ -34,8 +34,8 @@ struct DerivativeTable {
 /// The quantities of a derivative table: mean X, Y, Z, L, M, N and actuator power.
 std::vector<std::string> derivative_quantities();
 
-/// Step of a parameter at the base point (documented above); `speed` |V| and `rate` |ω|.
-double derivative_step(const Parameter& p, double speed, double rate);
+/// Step of a parameter at the base point (documented above); `speed` is |V|.
+double derivative_step(const Parameter& p, double speed);
 
 /// Derivatives of `quantities` with respect to `params` about `base`. A parameter whose ±h case
 /// is refused for its own range (InputError) uses a one-sided difference; a failing run at the

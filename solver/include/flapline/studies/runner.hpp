@@ -50,7 +50,4 @@ class Interrupted : public std::runtime_error {
 /// Worker threads a study uses by default: the cores available to this process.
 int default_threads();
 
-/// Whether this build runs cases in parallel (OpenMP).
-bool parallel_build();
-
 }  // namespace flapline::studies
