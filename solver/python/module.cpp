@@ -53,13 +53,6 @@ struct Interrupt {
   }
 };
 
-studies::CaseBuilderFactory factory_of(const io::CaseLoader& loader) {
-  return [&loader] {
-    auto own = std::make_shared<io::CaseLoader>(loader);
-    return [own](const studies::CaseSpec& c) { return own->build(c); };
-  };
-}
-
 template <class F>
 auto guarded(F&& f) {
   try {
@@ -98,44 +91,20 @@ py::tuple run(const std::string& text, const std::string& name, const std::strin
     const std::vector<std::vector<double>> t = io::history_table(s);
     for (std::size_t k = 0; k < t.size(); ++k) history[py::str(io::history_columns()[k])] = array(t[k]);
     py::dict span;
-    std::vector<double> phase, strip, radius, fraction, chord, fx, fy, fz, normal, gamma, alpha, ut, wi;
-    std::vector<std::string> wing;
     std::vector<bool> mean;
+    std::vector<double> phase;
+    std::vector<std::string> wing;
     for (const SpanwiseRow& r : s.spanwise) {
       mean.push_back(r.cycle_mean);
       phase.push_back(r.cycle_mean ? std::nan("") : r.phase);
       wing.emplace_back(to_string(r.side));
-      strip.push_back(r.strip + 1);
-      radius.push_back(r.radius);
-      fraction.push_back(r.span_fraction);
-      chord.push_back(r.chord);
-      fx.push_back(r.force_per_span.x());
-      fy.push_back(r.force_per_span.y());
-      fz.push_back(r.force_per_span.z());
-      normal.push_back(r.normal_force_per_span);
-      gamma.push_back(r.circulation);
-      alpha.push_back(std::isfinite(r.alpha) ? r.alpha / kDegree : std::nan(""));
-      ut.push_back(r.tangential_speed);
-      wi.push_back(r.induced_wash);
     }
     span["cycle_mean"] = mean;
     span["phase"] = array(phase);
     span["wing"] = wing;
-    span["strip"] = array(strip);
-    span["radius_m"] = array(radius);
-    span["span_fraction"] = array(fraction);
-    span["chord_m"] = array(chord);
-    span["X_per_span_N_m"] = array(fx);
-    span["Y_per_span_N_m"] = array(fy);
-    span["Z_per_span_N_m"] = array(fz);
-    std::vector<double> lift(fz.size());
-    for (std::size_t i = 0; i < fz.size(); ++i) lift[i] = -fz[i];
-    span["lift_per_span_N_m"] = array(lift);
-    span["normal_force_per_span_N_m"] = array(normal);
-    span["circulation_m2_s"] = array(gamma);
-    span["alpha_deg"] = array(alpha);
-    span["tangential_speed_m_s"] = array(ut);
-    span["induced_wash_m_s"] = array(wi);
+    const std::vector<std::vector<double>> st = io::spanwise_table(s);
+    for (std::size_t k = 0; k < st.size(); ++k)
+      span[py::str(io::spanwise_numeric_columns()[k])] = array(st[k]);
     return py::make_tuple(summary, history, span);
   });
 }
@@ -170,7 +139,7 @@ py::tuple sweep(const std::string& text, const std::string& name, const std::str
       studies::RunnerOptions options;
       options.threads = threads;
       options.stop = [&interrupt] { return interrupt.check(); };
-      studies::run_cases(def.cases, all, factory_of(loader), options,
+      studies::run_cases(def.cases, all, io::case_builders(loader), options,
                          [&](std::size_t i, const RunSummary& s) {
                            rows[i] = studies::table_row(i, def.columns, def.cases[i], s);
                          });
@@ -234,7 +203,7 @@ std::string trim(const std::string& text, const std::string& name, const std::st
     o.tolerance = tolerance;
     o.runner.threads = threads;
     o.runner.stop = [&interrupt] { return interrupt.check(); };
-    const studies::TrimResult r = studies::trim(params, t, {}, factory_of(loader), o);
+    const studies::TrimResult r = studies::trim(params, t, {}, io::case_builders(loader), o);
     return io::trim_json(r, params, tolerance, "simulation.start periodic, simulation.tolerance 1e-9");
   });
 }
@@ -254,7 +223,7 @@ std::string derivatives(const std::string& text, const std::string& name,
     o.threads = threads;
     o.stop = [&interrupt] { return interrupt.check(); };
     return io::derivatives_json(
-        studies::derivatives(params, studies::derivative_quantities(), {}, factory_of(loader), o));
+        studies::derivatives(params, studies::derivative_quantities(), {}, io::case_builders(loader), o));
   });
 }
 
@@ -272,7 +241,7 @@ std::string modes(const std::string& text, const std::string& name, const std::s
     o.threads = threads;
     o.stop = [&interrupt] { return interrupt.check(); };
     const std::vector<studies::Parameter> controls = parameters(loader, keys);
-    const studies::ModesStudy m = studies::modes_study(base, controls, factory_of(loader), o);
+    const studies::ModesStudy m = studies::modes_study(base, controls, io::case_builders(loader), o);
     std::vector<std::string> units;
     for (const auto& p : controls) units.push_back(io::parameter_unit(p));
     return io::modes_json(m.linear, keys, units, m.modes, m.warnings);

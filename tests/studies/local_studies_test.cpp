@@ -25,12 +25,7 @@ std::unique_ptr<io::CaseLoader> hover(std::vector<std::string> sets = {}) {
   return std::make_unique<io::CaseLoader>(test::source_path("configs/hover_insect.yaml"), sets);
 }
 
-CaseBuilderFactory factory(const io::CaseLoader& l) {
-  return [&l] {
-    auto own = std::make_shared<io::CaseLoader>(l);
-    return [own](const CaseSpec& c) { return own->build(c); };
-  };
-}
+CaseBuilderFactory factory(const io::CaseLoader& l) { return io::case_builders(l); }
 
 Parameter key(const io::CaseLoader& l, const std::string& k, double lo = -1e300, double hi = 1e300) {
   Parameter p;

@@ -134,10 +134,7 @@ void sweep(benchmark::State& state, const char* model, int cases) {
     converged = 0;
     studies::run_cases(
         specs, all,
-        [&loader] {
-          auto own = std::make_shared<io::CaseLoader>(loader);
-          return [own](const studies::CaseSpec& c) { return own->build(c); };
-        },
+        io::case_builders(loader),
         options,
         [&](std::size_t, const RunSummary& r) { converged += r.status == RunStatus::converged; });
   }
@@ -148,12 +145,6 @@ void sweep_quasi_steady_hover_10000(benchmark::State& state) { sweep(state, "qua
 void sweep_wagner_hover_1000(benchmark::State& state) { sweep(state, "wagner", 1000); }
 
 // Trim and derivatives of the hover vehicle demo (inner runs as `flapline trim` makes them).
-studies::CaseBuilderFactory loader_factory(const io::CaseLoader& loader) {
-  return [&loader] {
-    auto own = std::make_shared<io::CaseLoader>(loader);
-    return [own](const studies::CaseSpec& c) { return own->build(c); };
-  };
-}
 studies::Parameter free_key(const io::CaseLoader& l, const char* key, double lo, double hi) {
   studies::Parameter p;
   p.name = key;
@@ -177,7 +168,7 @@ void trim_hover(benchmark::State& state, const char* model) {
   o.runner.threads = static_cast<int>(state.range(0));
   int runs = 0;
   for (auto _ : state) {
-    const studies::TrimResult r = studies::trim(free, targets, {}, loader_factory(loader), o);
+    const studies::TrimResult r = studies::trim(free, targets, {}, io::case_builders(loader), o);
     runs = r.runs;
     benchmark::DoNotOptimize(r.values.data());
   }
@@ -196,7 +187,7 @@ void derivatives_6_params_and_flight(benchmark::State& state) {
   o.threads = static_cast<int>(state.range(0));
   for (auto _ : state) {
     const studies::DerivativeTable t = studies::derivatives(
-        params, studies::derivative_quantities(), {}, loader_factory(loader), o);
+        params, studies::derivative_quantities(), {}, io::case_builders(loader), o);
     benchmark::DoNotOptimize(t.value.data());
   }
 }

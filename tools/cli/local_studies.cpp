@@ -34,13 +34,6 @@ std::vector<std::string> with_inner(std::vector<std::string> sets) {
   return sets;
 }
 
-studies::CaseBuilderFactory factory_of(const io::CaseLoader& loader) {
-  return [&loader] {
-    auto own = std::make_shared<io::CaseLoader>(loader);
-    return [own](const studies::CaseSpec& c) { return own->build(c); };
-  };
-}
-
 double parse_number(const std::string& text, const std::string& option, const std::string& spec) {
   try {
     std::size_t used = 0;
@@ -179,7 +172,7 @@ int trim_command(const TrimArgs& a) {
     options.on_iteration = [](int it, double r) {
       std::fprintf(stderr, "\rtrim: iteration %d, scaled residual %.3e   ", it, r);
     };
-  const studies::TrimResult r = studies::trim(free, targets, {}, factory_of(loader), options);
+  const studies::TrimResult r = studies::trim(free, targets, {}, io::case_builders(loader), options);
   if (tty) std::fprintf(stderr, "\r%*s\r", 60, "");
 
   const fs::path dir = a.out.empty() ? fs::path("results") / (fs::path(a.config).stem().string() + "_trim")
@@ -259,7 +252,7 @@ studies::DerivativeTable derivative_table(const DerivativesArgs& a, const io::Ca
     throw InputError("--param", "(none)", "name at least one --param KEY, or --flight");
   studies::RunnerOptions options;
   options.threads = a.threads;
-  return studies::derivatives(params, quantities, {}, factory_of(loader), options);
+  return studies::derivatives(params, quantities, {}, io::case_builders(loader), options);
 }
 
 void print_table(const studies::DerivativeTable& t) {
@@ -318,7 +311,7 @@ int modes_command(const DerivativesArgs& a) {
   }
   studies::RunnerOptions options;
   options.threads = a.threads;
-  const studies::ModesStudy study = studies::modes_study(base, controls, factory_of(loader), options);
+  const studies::ModesStudy study = studies::modes_study(base, controls, io::case_builders(loader), options);
   const studies::DerivativeTable& t = study.derivatives;
   const studies::LinearModel& lm = study.linear;
   const std::vector<studies::Mode>& modes = study.modes;

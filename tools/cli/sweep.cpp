@@ -41,27 +41,6 @@ class InterruptGuard {
   void (*previous_)(int) = SIG_DFL;
 };
 
-std::string read_text(const std::string& path) {
-  std::ifstream in(path, std::ios::binary);
-  if (!in) {
-    InputError e("(file)", "'" + path + "'", "the configuration file could not be opened",
-                 fs::exists(path) ? "check its permissions" : "no such file");
-    e.locate(path, 0);
-    throw e;
-  }
-  std::stringstream ss;
-  ss << in.rdbuf();
-  return ss.str();
-}
-
-/// A builder per worker thread: its own copy of the parsed base configuration.
-studies::CaseBuilderFactory factory_of(const io::CaseLoader& loader) {
-  return [&loader] {
-    auto own = std::make_shared<io::CaseLoader>(loader);
-    return [own](const studies::CaseSpec& c) { return own->build(c); };
-  };
-}
-
 /// A case's own run folder (--keep-cases).
 void keep_case(const fs::path& dir, std::size_t index, const RunSummary& s) {
   if (!has_results(s.status)) return;
@@ -81,7 +60,9 @@ int lead_sweep(const SweepArgs& a, const io::SweepDefinition& def, const io::Sha
 int sweep_command(const SweepArgs& a) {
   io::SweepDefinition def;
   def.config_path = a.config;
-  def.config_text = read_text(a.config);
+  // The base config parsed once (with --set); its text goes into the fingerprint and sweep.json.
+  const io::CaseLoader loader(a.config, a.sets, fs::path(a.config).filename().string());
+  def.config_text = loader.text();
   def.sets = a.sets;
   def.vary_specs = a.vary;
   def.cases_file = a.cases_file;
@@ -107,7 +88,6 @@ int sweep_command(const SweepArgs& a) {
   const fs::path folder_path =
       a.out.empty() ? fs::path("results") / (fs::path(a.config).stem().string() + "_sweep")
                     : fs::path(a.out);
-  const io::CaseLoader loader(a.config, a.sets, fs::path(a.config).filename().string());
   io::check_sweep_values(def, loader);
 
   int threads = a.threads > 0 ? a.threads : studies::default_threads();
@@ -130,7 +110,7 @@ int sweep_command(const SweepArgs& a) {
     studies::RunnerOptions options;
     options.threads = threads;
     studies::mpi::distribute(
-        *session, def.cases, {}, factory_of(loader), options,
+        *session, def.cases, {}, io::case_builders(loader), options,
         [&](std::size_t i, const RunSummary& s) {
           return studies::table_row(i, def.columns, def.cases[i], s);
         },
@@ -195,7 +175,7 @@ int lead_sweep(const SweepArgs& a, const io::SweepDefinition& def, const io::Sha
     if (distributed) {
 #ifdef FLAPLINE_WITH_MPI
       studies::mpi::distribute(
-          *static_cast<studies::mpi::Session*>(mpi_session), def.cases, todo, factory_of(loader),
+          *static_cast<studies::mpi::Session*>(mpi_session), def.cases, todo, io::case_builders(loader),
           options,
           [&](std::size_t i, const RunSummary& s) {
             return studies::table_row(i, def.columns, def.cases[i], s);
@@ -203,7 +183,7 @@ int lead_sweep(const SweepArgs& a, const io::SweepDefinition& def, const io::Sha
           record);
 #endif
     } else {
-      studies::run_cases(def.cases, todo, factory_of(loader), options,
+      studies::run_cases(def.cases, todo, io::case_builders(loader), options,
                          [&](std::size_t i, const RunSummary& s) {
                            if (a.keep_cases) keep_case(folder.dir(), i, s);
                            record(i, studies::table_row(i, def.columns, def.cases[i], s));

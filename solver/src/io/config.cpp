@@ -6,6 +6,7 @@
 #include <cmath>
 #include <filesystem>
 #include <fstream>
+#include <functional>
 #include <map>
 #include <set>
 #include <sstream>
@@ -42,6 +43,15 @@ struct Source {
     std::stringstream ss(path);
     std::string part;
     while (std::getline(ss, part, '.')) {
+      if (cur.IsSequence()) {  // a list element: flight.velocity.0
+        char* end = nullptr;
+        const long k = std::strtol(part.c_str(), &end, 10);
+        if (part.empty() || *end != '\0' || k < 0 || static_cast<std::size_t>(k) >= cur.size())
+          return YAML::Node(YAML::NodeType::Undefined);
+        const YAML::Node next = static_cast<const YAML::Node&>(cur)[static_cast<std::size_t>(k)];
+        cur.reset(next);
+        continue;
+      }
       if (!cur.IsMap()) return YAML::Node(YAML::NodeType::Undefined);
       const YAML::Node next = static_cast<const YAML::Node&>(cur)[part];
       if (!next.IsDefined()) return YAML::Node(YAML::NodeType::Undefined);
@@ -805,55 +815,43 @@ void add_offsets(ModelSpec& s, const studies::CaseSpec& c) {
 }
 }  // namespace
 
-ModelSpec CaseLoader::spec(const studies::CaseSpec& c) const {
+/// f(source of the case), on a clone of the parsed base (fast; a clone has no line marks) and,
+/// when that raises an InputError, again on a fresh parse, whose nodes know their lines.
+template <class F>
+static auto with_case_source(const Source& base, const studies::CaseSpec& c,
+                             const std::function<Source()>& reparse, F&& f) {
   try {
-    const Source src = case_source(parsed_->base, c);
-    ModelSpec s = Reader(src).read();
-    add_offsets(s, c);
-    return s;
-  } catch (const InputError&) {  // again on a fresh parse, whose nodes know their lines
-    const Source src = case_source(parse(text_, name_, base_dir_, sets_), c, false);
-    ModelSpec s = Reader(src).read();
-    add_offsets(s, c);
-    return s;
+    return f(case_source(base, c));
+  } catch (const InputError&) {
+    return f(case_source(reparse(), c, false));
   }
 }
 
+ModelSpec CaseLoader::spec(const studies::CaseSpec& c) const {
+  return with_case_source(
+      parsed_->base, c, [this] { return parse(text_, name_, base_dir_, sets_); },
+      [&c](const Source& src) {
+        ModelSpec s = Reader(src).read();
+        add_offsets(s, c);
+        return s;
+      });
+}
+
 Model CaseLoader::build(const studies::CaseSpec& c) const {
-  try {
-    const Source src = case_source(parsed_->base, c);
-    ModelSpec s = Reader(src).read();
-    add_offsets(s, c);
-    return ::flapline::io::build(src, std::move(s));
-  } catch (const InputError&) {  // again on a fresh parse, whose nodes know their lines
-    const Source src = case_source(parse(text_, name_, base_dir_, sets_), c, false);
-    ModelSpec s = Reader(src).read();
-    add_offsets(s, c);
-    return ::flapline::io::build(src, std::move(s));
-  }
+  return with_case_source(
+      parsed_->base, c, [this] { return parse(text_, name_, base_dir_, sets_); },
+      [&c](const Source& src) {
+        ModelSpec s = Reader(src).read();
+        add_offsets(s, c);
+        return ::flapline::io::build(src, std::move(s));
+      });
 }
 
 std::optional<double> CaseLoader::number_at(const std::string& key) const {
   const Source& src = parsed_->base;
-  auto scalar = [&](const std::string& path) -> std::optional<YAML::Node> {
-    YAML::Node cur;
-    cur.reset(src.root);
-    std::stringstream ss(path);
-    for (std::string part; std::getline(ss, part, '.');) {
-      if (cur.IsSequence()) {
-        char* end = nullptr;
-        const long k = std::strtol(part.c_str(), &end, 10);
-        if (*end != '\0' || k < 0 || static_cast<std::size_t>(k) >= cur.size()) return std::nullopt;
-        const YAML::Node next = static_cast<const YAML::Node&>(cur)[static_cast<std::size_t>(k)];
-        cur.reset(next);
-        continue;
-      }
-      if (!cur.IsMap()) return std::nullopt;
-      const YAML::Node next = static_cast<const YAML::Node&>(cur)[part];
-      if (!next.IsDefined()) return std::nullopt;
-      cur.reset(next);
-    }
-    return cur;
+  auto scalar = [&src](const std::string& path) -> std::optional<YAML::Node> {
+    const YAML::Node n = src.find(path);
+    return n.IsDefined() ? std::optional<YAML::Node>(n) : std::nullopt;
   };
   auto as_number = [&](const YAML::Node& n) -> std::optional<double> {
     if (!n.IsScalar()) return std::nullopt;
@@ -904,20 +902,11 @@ std::string CaseLoader::document(const studies::CaseSpec& c) const {
   return std::string(out.c_str()) + "\n";
 }
 
-void CaseLoader::locate(InputError& e, const studies::CaseSpec& c) const {
-  Source src = parsed_->base;
-  src.root.reset(YAML::Clone(parsed_->base.root));
-  for (const studies::Override& o : c.overrides) {
-    try {
-      apply_override(src.root, o.key, o.text, o.remove, "case");
-    } catch (const InputError&) {
-      return;
-    }
-    src.overrides[o.key] = "case " + o.key + "=" + (o.remove ? "~" : o.text);
-  }
-  InputError located = e.rekeyed(written_key(src, e.key()));
-  src.locate(located);
-  e = located;
+studies::CaseBuilderFactory case_builders(const CaseLoader& loader) {
+  return [&loader] {
+    auto own = std::make_shared<CaseLoader>(loader);  // a copy parses anew: one per thread
+    return [own](const studies::CaseSpec& c) { return own->build(c); };
+  };
 }
 
 }  // namespace flapline::io

@@ -93,12 +93,35 @@ std::string history_csv(const RunSummary& s) {
   return out;
 }
 
-std::string spanwise_csv(const RunSummary& s) {
-  std::string out =
-      "phase,wing,strip,radius_m,span_fraction,chord_m,X_per_span_N_m,Y_per_span_N_m,"
-      "Z_per_span_N_m,lift_per_span_N_m,normal_force_per_span_N_m,circulation_m2_s,alpha_deg,"
-      "tangential_speed_m_s,induced_wash_m_s\n";
+const std::vector<std::string>& spanwise_numeric_columns() {
+  static const std::vector<std::string> c{
+      "strip", "radius_m", "span_fraction", "chord_m", "X_per_span_N_m", "Y_per_span_N_m",
+      "Z_per_span_N_m", "lift_per_span_N_m", "normal_force_per_span_N_m", "circulation_m2_s",
+      "alpha_deg", "tangential_speed_m_s", "induced_wash_m_s"};
+  return c;
+}
+
+std::vector<std::vector<double>> spanwise_table(const RunSummary& s) {
+  std::vector<std::vector<double>> t(spanwise_numeric_columns().size());
   for (const SpanwiseRow& r : s.spanwise) {
+    std::size_t k = 0;
+    for (double v : {static_cast<double>(r.strip + 1), r.radius, r.span_fraction, r.chord,
+                     r.force_per_span.x(), r.force_per_span.y(), r.force_per_span.z(),
+                     -r.force_per_span.z(), r.normal_force_per_span, r.circulation,
+                     r.alpha / kDegree,  // NaN in the cycle-mean rows
+                     r.tangential_speed, r.induced_wash})
+      t[k++].push_back(v);
+  }
+  return t;
+}
+
+std::string spanwise_csv(const RunSummary& s) {
+  std::string out = "phase,wing";
+  for (const std::string& c : spanwise_numeric_columns()) out += "," + c;
+  out += "\n";
+  const std::vector<std::vector<double>> t = spanwise_table(s);
+  for (std::size_t i = 0; i < s.spanwise.size(); ++i) {
+    const SpanwiseRow& r = s.spanwise[i];
     char buf[64];
     if (r.cycle_mean)
       std::snprintf(buf, sizeof buf, "mean,%s,%d", std::string(to_string(r.side)).c_str(),
@@ -107,19 +130,12 @@ std::string spanwise_csv(const RunSummary& s) {
       std::snprintf(buf, sizeof buf, "%.6f,%s,%d", r.phase, std::string(to_string(r.side)).c_str(),
                     r.strip + 1);
     out += buf;
-    cell(out, r.radius);
-    cell(out, r.span_fraction);
-    cell(out, r.chord);
-    for (int i = 0; i < 3; ++i) cell(out, r.force_per_span(i));
-    cell(out, -r.force_per_span.z());
-    cell(out, r.normal_force_per_span);
-    cell(out, r.circulation);
-    if (std::isfinite(r.alpha))
-      cell(out, r.alpha / kDegree);
-    else
-      out += ",";
-    cell(out, r.tangential_speed);
-    cell(out, r.induced_wash);
+    for (std::size_t k = 1; k < t.size(); ++k) {
+      if (std::isfinite(t[k][i]))
+        cell(out, t[k][i]);
+      else
+        out += ",";  // the angle of attack of a cycle-mean row
+    }
     out += "\n";
   }
   return out;

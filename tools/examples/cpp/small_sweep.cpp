@@ -18,11 +18,7 @@ int main(int argc, char** argv) {
   std::vector<std::size_t> all{0, 1, 2, 3, 4};
   std::map<std::size_t, std::string> rows;
   studies::run_cases(
-      cases, all,
-      [&loader] {
-        auto own = std::make_shared<io::CaseLoader>(loader);  // one per worker thread
-        return [own](const studies::CaseSpec& c) { return own->build(c); };
-      },
+      cases, all, io::case_builders(loader),  // a copy of the loader per worker thread
       {}, [&](std::size_t i, const RunSummary& s) {
         rows[i] = studies::table_row(i, {"gait.frequency"}, cases[i], s);
       });

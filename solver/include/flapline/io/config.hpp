@@ -12,6 +12,7 @@
 #include "flapline/common/errors.hpp"
 #include "flapline/case/model.hpp"
 #include "flapline/studies/design.hpp"
+#include "flapline/studies/runner.hpp"
 
 namespace flapline::io {
 
@@ -61,8 +62,6 @@ class CaseLoader {
   /// a side's key inheriting the shared gait value, a waveform field left out taking its default
   /// (mean 0, span ratio mean 1, amplitude 0, phase 0). Empty when the key holds no number.
   std::optional<double> number_at(const std::string& key) const;
-  /// Place an error raised after building (e.g. by the run's step-size check) at its key.
-  void locate(InputError& error, const studies::CaseSpec& c) const;
 
   /// The case as a YAML document that runs as is: the base (with --set) and the case's
   /// overrides, a table file's path made absolute. Comments are not kept.
@@ -78,5 +77,9 @@ class CaseLoader {
   std::vector<std::string> sets_;
   std::shared_ptr<const Parsed> parsed_;
 };
+
+/// Case builders for a study: each worker thread gets its own copy of `loader` (which must
+/// outlive the study).
+studies::CaseBuilderFactory case_builders(const CaseLoader& loader);
 
 }  // namespace flapline::io

@@ -26,6 +26,11 @@ std::vector<std::vector<double>> history_table(const RunSummary& summary);
 /// spanwise.csv: per strip at each requested phase and the cycle mean.
 std::string spanwise_csv(const RunSummary& summary);
 
+/// The numeric columns of spanwise.csv (all but `phase` and `wing`) and their values, one
+/// vector per column at full precision (alpha_deg NaN in the cycle-mean rows).
+const std::vector<std::string>& spanwise_numeric_columns();
+std::vector<std::vector<double>> spanwise_table(const RunSummary& summary);
+
 /// summary.json: every cycle average and figure, units in the key names.
 std::string summary_json(const RunSummary& summary, const std::string& config_path = {});
 
