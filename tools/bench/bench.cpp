@@ -62,6 +62,35 @@ void lifting_line_forward(benchmark::State& state) {
   run_cycles(state, with_model(samples::forward_bat(), ModelKind::lifting_line));
 }
 
+// Time per wing-beat against the strip count per wing (hover demo, fresh 8-cycle runs from rest,
+// 400 steps). `uniform`: strips of equal width (comparable with every earlier version); `cosine`:
+// strips clustered at the tip.
+void hover_strips(benchmark::State& state, ModelKind kind, StripSpacing spacing) {
+  ModelSpec s = with_model(samples::hover_insect(), kind);
+  const int cycles = 8;
+  s = bench_spec(s, cycles);
+  s.strips.count = static_cast<int>(state.range(0));
+  s.strips.spacing = spacing;
+  const Model model(s);
+  for (auto _ : state) {
+    Workspace ws(model);
+    RunSummary r = simulate(model, ws);
+    benchmark::DoNotOptimize(r.averages.mean.force);
+  }
+  state.counters["ms_per_wingbeat"] = benchmark::Counter(
+      static_cast<double>(cycles) * 1e-3,
+      benchmark::Counter::kIsIterationInvariantRate | benchmark::Counter::kInvert);
+}
+void hover_uniform_quasi_steady(benchmark::State& state) {
+  hover_strips(state, ModelKind::quasi_steady, StripSpacing::uniform);
+}
+void hover_uniform_wagner(benchmark::State& state) {
+  hover_strips(state, ModelKind::wagner, StripSpacing::uniform);
+}
+void hover_uniform_lifting_line(benchmark::State& state) {
+  hover_strips(state, ModelKind::lifting_line, StripSpacing::uniform);
+}
+
 // Cost breakdown of one uncached lifting-line stage (20 strips per wing): assembling K, factorising
 // I − D₀K, and the rest of a derivative once the phase is cached.
 const Model& forward_lifting_line() {
@@ -209,4 +238,8 @@ BENCHMARK(quasi_steady_hover)->Unit(benchmark::kMillisecond);
 BENCHMARK(quasi_steady_forward)->Unit(benchmark::kMillisecond);
 BENCHMARK(wagner_hover)->Unit(benchmark::kMillisecond);
 BENCHMARK(wagner_forward)->Unit(benchmark::kMillisecond);
+BENCHMARK(hover_uniform_quasi_steady)->Arg(20)->Arg(40)->Arg(100)->Arg(200)->Unit(benchmark::kMillisecond);
+BENCHMARK(hover_uniform_wagner)->Arg(20)->Arg(40)->Arg(100)->Arg(200)->Unit(benchmark::kMillisecond);
+BENCHMARK(hover_uniform_lifting_line)->Arg(20)->Arg(40)->Unit(benchmark::kMillisecond);
+BENCHMARK(hover_uniform_lifting_line)->Arg(100)->Arg(200)->Iterations(1)->Unit(benchmark::kSecond);
 BENCHMARK_MAIN();
