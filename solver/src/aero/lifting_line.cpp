@@ -1,6 +1,8 @@
 #include "flapline/aero/lifting_line.hpp"
 
+#include <algorithm>
 #include <array>
+#include <atomic>
 #include <cassert>
 #include <vector>
 
@@ -17,19 +19,68 @@ namespace {
 
 constexpr double kCoreFraction = 0.01;  // δ = 1 % of the strip width (DESIGN §4)
 
+/// Bytes that the per-phase factors of all lifting-line runs of this process hold together
+/// (simulation.cache_mib).
+std::atomic<long long> cache_bytes_in_use{0};
+
+/// A share of the process budget, returned when released or destroyed.
+class CacheLease {
+ public:
+  CacheLease() = default;
+  CacheLease(const CacheLease&) = delete;
+  CacheLease& operator=(const CacheLease&) = delete;
+  ~CacheLease() { release(); }
+  /// Takes up to `want` bytes of what the budget still allows; returns the bytes held.
+  long long request(long long want, long long budget) {
+    release();
+    long long used = cache_bytes_in_use.load();
+    for (;;) {
+      const long long grant = std::max(0LL, std::min(want, budget - used));
+      if (grant == 0) return 0;
+      if (cache_bytes_in_use.compare_exchange_weak(used, used + grant)) {
+        held_ = grant;
+        return grant;
+      }
+    }
+  }
+  void release() {
+    if (held_ > 0) cache_bytes_in_use.fetch_sub(held_);
+    held_ = 0;
+  }
+
+ private:
+  long long held_ = 0;
+};
+
+using Permutation = Eigen::PermutationMatrix<Eigen::Dynamic, Eigen::Dynamic, int>;
+
+/// Partial-pivoting factors of one stage phase: mirror: the + half's LU in the left N columns and
+/// the − half's in the right ones; otherwise the LU of the whole 2N system.
+struct PhaseFactors {
+  Eigen::MatrixXd lu;
+  Permutation perm, perm2;
+};
+
 /// Per-run buffers of the lifting line.
 struct LiftingLineScratch final : AeroScratch {
   HorseshoeGeometry geometry;
-  Eigen::MatrixXd K, S, identity;
-  Eigen::PartialPivLU<Eigen::MatrixXd> lu;
-  Eigen::VectorXd rhs, gamma;
+  Eigen::MatrixXd K, S, S2, identity;
+  Eigen::PartialPivLU<Eigen::MatrixXd> lu, lu2;
+  Eigen::VectorXd rhs, gamma, y_sum, y_difference, y_work;
   Eigen::ArrayXd forcing, p, d0;  // f; πc; (1 − A₁ − A₂)πc
   std::array<bool, 2> own_constant{false, false}, own_ready{false, false};
   std::array<Eigen::MatrixXd, 2> own_block;
-  // Per stage phase: G = (I − D₀K)⁻¹ and KG, filled during the first cycle (allocated by
-  // prepare_run). With static geometry a single slot serves every time.
-  std::vector<Eigen::MatrixXd> g_cache, kg_cache;
+  /// Both wings take the same angles at every instant: the geometry is mirror-symmetric and the
+  /// system splits into a symmetric and an antisymmetric half of N strips each.
+  bool mirror = false;
+  bool direct = false;  ///< model.line_solve = direct
+  /// Per stage phase: the factors of I − D₀(K_RR ± K_RL) (mirror) or of I − D₀K. Filled during
+  /// the first cycle; phases past the budget are factorised afresh at each stage.
+  std::vector<PhaseFactors> cache;
   std::vector<char> filled;
+  Eigen::Index cached_slots = 0;  ///< slots [0, cached_slots) may be cached
+  Eigen::Index phase_slots = 0;   ///< stage phases per cycle (0: no phase cache)
+  CacheLease lease;
   bool static_geometry = false;
 };
 
@@ -39,9 +90,41 @@ LiftingLineScratch& scratch_of(Workspace& ws) {
   return static_cast<LiftingLineScratch&>(*ws.aero_scratch);
 }
 
+bool same_wave(const WaveformSpec& a, const WaveformSpec& b) {
+  return a.shape == b.shape && a.mean == b.mean && a.amplitude == b.amplitude &&
+         a.phase == b.phase && a.sharpness == b.sharpness && a.delay == b.delay &&
+         a.harmonic_amplitudes == b.harmonic_amplitudes && a.harmonic_phases == b.harmonic_phases &&
+         a.table_fraction == b.table_fraction && a.table_value == b.table_value;
+}
 
-/// K at the poses in ws.poses, for the model's span coupling.
-void assemble(const Model& model, Workspace& ws, LiftingLineScratch& s) {
+/// The two wings take the same angles at every instant (the geometry is mirror-symmetric).
+bool mirror_gait(const Model& model) {
+  const WingMotion& r = model.motion(Side::right);
+  const WingMotion& l = model.motion(Side::left);
+  return same_wave(r.stroke.spec(), l.stroke.spec()) &&
+         same_wave(r.deviation.spec(), l.deviation.spec()) &&
+         same_wave(r.pitch.spec(), l.pitch.spec()) &&
+         same_wave(r.span_ratio.spec(), l.span_ratio.spec());
+}
+
+/// Own-wing block of `side` into K (reused while the wing keeps its span ratio).
+void assemble_own(const Model& model, LiftingLineScratch& s, std::size_t side) {
+  const Eigen::Index n = model.strips_per_wing();
+  const Eigen::Index o = static_cast<Eigen::Index>(side) * n;
+  if (s.own_constant[side] && s.own_ready[side]) {
+    s.K.block(o, o, n, n) = s.own_block[side];
+    return;
+  }
+  influence_block(s.geometry, o, n, o, n, s.K.block(o, o, n, n));
+  if (s.own_constant[side]) {
+    s.own_block[side] = s.K.block(o, o, n, n);
+    s.own_ready[side] = true;
+  }
+}
+
+/// K at the poses in ws.poses, for the model's span coupling. `half`: only the blocks the mirror
+/// split reads (K_RR and K_RL).
+void assemble(const Model& model, Workspace& ws, LiftingLineScratch& s, bool half = false) {
   const Eigen::Index n = model.strips_per_wing();
   const SpanCoupling coupling = model.aero_options().span_coupling;
   if (coupling == SpanCoupling::none) {
@@ -49,25 +132,71 @@ void assemble(const Model& model, Workspace& ws, LiftingLineScratch& s) {
     return;
   }
   horseshoe_geometry(model, ws, s.geometry);
-  for (std::size_t side = 0; side < 2; ++side) {
-    const Eigen::Index o = static_cast<Eigen::Index>(side) * n;
-    if (s.own_constant[side] && s.own_ready[side]) {
-      s.K.block(o, o, n, n) = s.own_block[side];
-      continue;
-    }
-    influence_block(s.geometry, o, n, o, n, s.K.block(o, o, n, n));
-    if (s.own_constant[side]) {
-      s.own_block[side] = s.K.block(o, o, n, n);
-      s.own_ready[side] = true;
-    }
-  }
+  assemble_own(model, s, 0);
+  if (!half) assemble_own(model, s, 1);
   if (coupling == SpanCoupling::both_wings) {
     influence_block(s.geometry, 0, n, n, n, s.K.block(0, n, n, n));
-    influence_block(s.geometry, n, n, 0, n, s.K.block(n, 0, n, n));
+    if (!half) influence_block(s.geometry, n, n, 0, n, s.K.block(n, 0, n, n));
   } else {
     s.K.block(0, n, n, n).setZero();
     s.K.block(n, 0, n, n).setZero();
   }
+}
+
+/// Factorises the system at the poses in ws.poses: mirror halves into lu (+) and lu2 (−), or the
+/// whole of I − D₀K into lu.
+void factorise(const Model& model, Workspace& ws, LiftingLineScratch& s) {
+  const Eigen::Index n = model.strips_per_wing();
+  if (s.mirror) {
+    assemble(model, ws, s, true);
+    const auto own = s.K.topLeftCorner(n, n), cross = s.K.topRightCorner(n, n);
+    const auto d = s.d0.head(n).matrix().asDiagonal();
+    s.S2.setIdentity(n, n);
+    s.S2.noalias() -= d * own;
+    s.S = s.S2;
+    s.S.noalias() -= d * cross;   // I − D₀(K_RR + K_RL)
+    s.S2.noalias() += d * cross;  // I − D₀(K_RR − K_RL)
+    s.lu.compute(s.S);
+    s.lu2.compute(s.S2);
+    return;
+  }
+  assemble(model, ws, s);
+  s.S = s.identity;
+  s.S.noalias() -= s.d0.matrix().asDiagonal() * s.K;
+  s.lu.compute(s.S);
+}
+
+/// Solves LU y = P r in place (y holds r on entry) with stored partial-pivoting factors.
+void solve_with(const Eigen::Ref<const Eigen::MatrixXd>& factors, const Permutation& perm,
+                Eigen::VectorXd& y, Eigen::VectorXd& work) {
+  work.noalias() = perm * y;
+  factors.triangularView<Eigen::UnitLower>().solveInPlace(work);
+  factors.triangularView<Eigen::Upper>().solveInPlace(work);
+  y.swap(work);
+}
+
+/// Γ from s.rhs with the factors in lu/lu2 (`factorise`) or stored ones.
+void solve_factors(const Model& model, LiftingLineScratch& s, const Eigen::MatrixXd& lu_sum,
+                   const Permutation& perm_sum, const Eigen::MatrixXd* lu_difference,
+                   const Permutation* perm_difference) {
+  const Eigen::Index n = model.strips_per_wing();
+  if (!s.mirror) {
+    s.y_sum = s.rhs;
+    solve_with(lu_sum, perm_sum, s.y_sum, s.y_work);
+    s.gamma = s.y_sum;
+    return;
+  }
+  s.y_sum = 0.5 * (s.rhs.head(n) + s.rhs.tail(n));
+  s.y_difference = 0.5 * (s.rhs.head(n) - s.rhs.tail(n));
+  if (lu_difference) {  // separate factors
+    solve_with(lu_sum, perm_sum, s.y_sum, s.y_work);
+    solve_with(*lu_difference, *perm_difference, s.y_difference, s.y_work);
+  } else {  // stored side by side
+    solve_with(lu_sum.leftCols(n), perm_sum, s.y_sum, s.y_work);
+    solve_with(lu_sum.rightCols(n), *perm_difference, s.y_difference, s.y_work);
+  }
+  s.gamma.head(n) = s.y_sum + s.y_difference;
+  s.gamma.tail(n) = s.y_sum - s.y_difference;
 }
 
 /// Γ (into s.gamma) and the forcing f = w_¾ + KΓ (into s.forcing) for states x at time t.
@@ -82,30 +211,48 @@ void solve_stage(const Model& model, Workspace& ws, double t, const Eigen::Vecto
     s.forcing = w34;
     return;
   }
-  const Eigen::Index slot =
-      s.static_geometry && !s.filled.empty()
-          ? 0
-          : cycle_slot(t, model.frequency(), static_cast<Eigen::Index>(s.filled.size()));
-  if (slot < 0 || !s.filled[static_cast<std::size_t>(slot)]) {
-    if (!poses_current) update_speeds(model, ws, t);  // poses at t (stage arrays are not read)
+  if (s.direct) {  // the reference: K and its factors afresh, f = w + KΓ as a product
+    if (!poses_current) update_speeds(model, ws, t);
     assemble(model, ws, s);
     s.S = s.identity;
     s.S.noalias() -= s.d0.matrix().asDiagonal() * s.K;
     s.lu.compute(s.S);
-    if (slot < 0) {
-      s.gamma = s.lu.solve(s.rhs);
-      s.forcing = w34;
-      s.forcing.matrix().noalias() += s.K * s.gamma;
-      return;
-    }
-    Eigen::MatrixXd& g = s.g_cache[static_cast<std::size_t>(slot)];
-    g = s.lu.solve(s.identity);
-    s.kg_cache[static_cast<std::size_t>(slot)].noalias() = s.K * g;
-    s.filled[static_cast<std::size_t>(slot)] = 1;
+    s.gamma = s.lu.solve(s.rhs);
+    s.forcing = w34;
+    s.forcing.matrix().noalias() += s.K * s.gamma;
+    return;
   }
-  s.gamma.noalias() = s.g_cache[static_cast<std::size_t>(slot)] * s.rhs;
-  s.forcing = w34;
-  s.forcing.matrix().noalias() += s.kg_cache[static_cast<std::size_t>(slot)] * s.rhs;
+  Eigen::Index slot = -1;
+  if (s.static_geometry)
+    slot = 0;
+  else if (s.phase_slots > 0)
+    slot = cycle_slot(t, model.frequency(), s.phase_slots);
+  if (slot >= s.cached_slots) slot = -1;
+  if (slot >= 0 && s.filled[static_cast<std::size_t>(slot)]) {
+    const PhaseFactors& f = s.cache[static_cast<std::size_t>(slot)];
+    solve_factors(model, s, f.lu, f.perm, nullptr, &f.perm2);
+  } else {
+    if (!poses_current) update_speeds(model, ws, t);  // poses at t (stage arrays are not read)
+    factorise(model, ws, s);
+    solve_factors(model, s, s.lu.matrixLU(), s.lu.permutationP(), &s.lu2.matrixLU(),
+                  &s.lu2.permutationP());
+    if (slot >= 0) {
+      PhaseFactors& f = s.cache[static_cast<std::size_t>(slot)];
+      const Eigen::Index n = model.strips_per_wing();
+      if (s.mirror) {
+        f.lu.leftCols(n) = s.lu.matrixLU();
+        f.lu.rightCols(n) = s.lu2.matrixLU();
+        f.perm = s.lu.permutationP();
+        f.perm2 = s.lu2.permutationP();
+      } else {
+        f.lu = s.lu.matrixLU();
+        f.perm = s.lu.permutationP();
+      }
+      s.filled[static_cast<std::size_t>(slot)] = 1;
+    }
+  }
+  // (I − D₀K)Γ = r gives KΓ = (Γ − r)/D₀ without a product with K.
+  s.forcing = w34 + (s.gamma.array() - s.rhs.array()) / s.d0;
 }
 
 /// Steady coupled solution at the poses in ws.poses: (I − PK)Γ = P w_¾, f = Γ/(πc).
@@ -113,10 +260,10 @@ void steady_forcing(const Model& model, Workspace& ws, const Eigen::ArrayXd& w34
                     Eigen::ArrayXd& f) {
   LiftingLineScratch& s = scratch_of(ws);
   assemble(model, ws, s);
-  s.S = s.identity;
-  s.S.noalias() -= s.p.matrix().asDiagonal() * s.K;
+  Eigen::MatrixXd S = s.identity;  // not s.S: the mirror split keeps that at half size
+  S.noalias() -= s.p.matrix().asDiagonal() * s.K;
   const Eigen::VectorXd rhs = (s.p * w34).matrix();
-  const Eigen::VectorXd gamma = s.S.partialPivLu().solve(rhs);
+  const Eigen::VectorXd gamma = S.partialPivLu().solve(rhs);
   f = gamma.array() / s.p;
 }
 
@@ -198,17 +345,14 @@ std::unique_ptr<AeroScratch> LiftingLineModel::make_scratch(
     const Model& model, std::unique_ptr<AeroScratch> previous) const {
   auto s = std::make_unique<LiftingLineScratch>();
   if (previous && previous->kind == ModelKind::lifting_line) {
-    // Keep the per-phase matrices' allocations; prepare_run marks every slot empty.
+    // Keep the per-phase factors' allocations; prepare_run marks every slot empty.
     auto& old = static_cast<LiftingLineScratch&>(*previous);
-    s->g_cache = std::move(old.g_cache);
-    s->kg_cache = std::move(old.kg_cache);
+    s->cache = std::move(old.cache);
   }
-  const Eigen::Index n2 = model.strip_count();
+  const Eigen::Index n2 = model.strip_count(), n = model.strips_per_wing();
   const WagnerCoefficients w = wagner_coefficients(model.aero_options().wagner_fit);
   s->K.setZero(n2, n2);
-  s->S.setZero(n2, n2);
   s->identity.setIdentity(n2, n2);
-  s->lu = Eigen::PartialPivLU<Eigen::MatrixXd>(n2);
   s->rhs.setZero(n2);
   s->gamma.setZero(n2);
   s->forcing.setZero(n2);
@@ -224,36 +368,45 @@ std::unique_ptr<AeroScratch> LiftingLineModel::make_scratch(
     for (const Waveform* wave : {&m.stroke, &m.deviation, &m.pitch, &m.span_ratio})
       if (wave->maximum() != wave->minimum()) moving = true;
   }
+  s->direct = model.aero_options().line_solve == LineSolve::direct;
+  s->mirror = !s->direct && mirror_gait(model);
+  const Eigen::Index m = s->mirror ? n : n2;  // size of the systems factorised
+  s->S.setZero(m, m);
+  s->S2.setZero(m, m);
+  s->lu = Eigen::PartialPivLU<Eigen::MatrixXd>(m);
+  s->lu2 = Eigen::PartialPivLU<Eigen::MatrixXd>(m);
+  s->lu2.compute(s->identity.topLeftCorner(m, m));  // valid (unused) factors for the full path
+  s->y_sum.setZero(m);
+  s->y_difference.setZero(m);
+  s->y_work.setZero(m);
   s->static_geometry = !moving && model.aero_options().span_coupling != SpanCoupling::none;
-  if (s->static_geometry) {  // one slot, cheap: allocate now
-    s->g_cache.assign(1, Eigen::MatrixXd::Zero(n2, n2));
-    s->kg_cache.assign(1, Eigen::MatrixXd::Zero(n2, n2));
-    s->filled.assign(1, 0);
-  }
   s->kind = ModelKind::lifting_line;
   return s;
 }
 
 void LiftingLineModel::prepare_run(const Model& model, Workspace& ws) const {
   LiftingLineScratch& s = scratch_of(ws);
-  if (s.static_geometry || !s.filled.empty()) return;
-  const Eigen::Index n2 = model.strip_count();
-  const std::size_t slots = static_cast<std::size_t>(2 * model.simulation().steps_per_cycle);
-  const double bytes = 2.0 * 8.0 * static_cast<double>(n2 * n2) * static_cast<double>(slots);
-  if (model.periodic_kinematics() && model.aero_options().span_coupling != SpanCoupling::none &&
-      bytes <= 256.0 * 1024 * 1024) {
-    // Slots are read only once filled, so reused matrices need no clearing.
-    s.g_cache.resize(slots);
-    s.kg_cache.resize(slots);
-    for (std::size_t j = 0; j < slots; ++j) {
-      s.g_cache[j].resize(n2, n2);
-      s.kg_cache[j].resize(n2, n2);
-    }
-    s.filled.assign(slots, 0);
-  } else {
-    s.g_cache.clear();
-    s.kg_cache.clear();
+  s.filled.clear();
+  s.cached_slots = s.phase_slots = 0;
+  s.lease.release();
+  if (s.direct || model.aero_options().span_coupling == SpanCoupling::none) return;
+  if (!s.static_geometry && !model.periodic_kinematics()) return;
+  const Eigen::Index n = model.strips_per_wing();
+  const Eigen::Index rows = s.mirror ? n : 2 * n;
+  const long long slot_bytes = (8LL * rows + 4LL) * 2 * n;
+  const Eigen::Index slots = s.static_geometry ? 1 : 2 * model.simulation().steps_per_cycle;
+  const long long budget = static_cast<long long>(model.simulation().cache_mib) * 1024 * 1024;
+  const long long granted = s.lease.request(slot_bytes * slots, budget);
+  s.phase_slots = s.static_geometry ? 0 : slots;
+  s.cached_slots = static_cast<Eigen::Index>(granted / slot_bytes);
+  // Slots are read only once filled, so reused matrices need no clearing.
+  s.cache.resize(static_cast<std::size_t>(s.cached_slots));
+  for (PhaseFactors& f : s.cache) {
+    f.lu.resize(rows, 2 * n);
+    f.perm.resize(rows);
+    f.perm2.resize(s.mirror ? rows : 0);
   }
+  s.filled.assign(static_cast<std::size_t>(s.cached_slots), 0);
 }
 
 void LiftingLineModel::initial_state(const Model& model, Workspace& ws, double t, StartMode start,

@@ -28,6 +28,9 @@ void validate(const SimulationOptions& o) {
         .between_keys();
   if (!(o.tolerance > 0.0 && o.tolerance <= 0.1))
     throw InputError("simulation.tolerance", format_number(o.tolerance), "must lie in (0, 0.1]");
+  if (o.cache_mib < 0 || o.cache_mib > 1048576)
+    throw InputError("simulation.cache_mib", std::to_string(o.cache_mib),
+                     "must lie in [0, 1048576] (MiB per process)");
   if (o.spanwise_phases.size() > 64)
     throw InputError("simulation.spanwise_phases", std::to_string(o.spanwise_phases.size()),
                      "at most 64 phases");

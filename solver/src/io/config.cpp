@@ -543,7 +543,9 @@ class Reader {
 
   void read_model(const YAML::Node& m, AeroOptions& o) const {
     check_keys(m, "model", {"kind", "coefficient_law", "suction_recovery", "vortex_lift", "fit",
-                            "wagner_fit", "reverse_flow", "span_coupling"});
+                            "wagner_fit", "reverse_flow", "span_coupling", "line_solve"});
+    if (has(m, "line_solve"))
+      o.line_solve = choice<LineSolve>(m["line_solve"], "model.line_solve");
     if (has(m, "span_coupling"))
       o.span_coupling = choice<SpanCoupling>(m["span_coupling"], "model.span_coupling");
     if (has(m, "wagner_fit")) o.wagner_fit = choice<WagnerFit>(m["wagner_fit"], "model.wagner_fit");
@@ -574,7 +576,11 @@ class Reader {
   void read_simulation(const YAML::Node& s, SimulationOptions& o) const {
     const std::string P = "simulation";
     check_keys(s, P, {"steps_per_cycle", "samples_per_cycle", "min_cycles", "max_cycles",
-                      "tolerance", "start", "spanwise_phases", "history"});
+                      "tolerance", "start", "spanwise_phases", "history", "integrator",
+                      "cache_mib"});
+    if (has(s, "integrator"))
+      o.integrator = choice<Integrator>(s["integrator"], P + ".integrator");
+    if (has(s, "cache_mib")) o.cache_mib = integer(s["cache_mib"], P + ".cache_mib");
     if (has(s, "steps_per_cycle")) o.steps_per_cycle = integer(s["steps_per_cycle"], P + ".steps_per_cycle");
     if (has(s, "samples_per_cycle"))
       o.samples_per_cycle = integer(s["samples_per_cycle"], P + ".samples_per_cycle");

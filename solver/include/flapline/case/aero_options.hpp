@@ -92,6 +92,17 @@ struct RevolvingFit {
 };
 
 /// Every aerodynamic option of a run, with defaults.
+/// How the lifting line solves its circulation system (I − D₀K)Γ = r at each stage.
+enum class LineSolve {
+  structured,  ///< per-phase inverses, split into mirror halves when the wings move alike (default)
+  direct       ///< assemble K and factorise I − D₀K afresh at every stage (the reference, slow)
+};
+template <>
+struct EnumNames<LineSolve> {
+  static constexpr std::array<std::pair<LineSolve, std::string_view>, 2> items{
+      {{LineSolve::structured, "structured"}, {LineSolve::direct, "direct"}}};
+};
+
 struct AeroOptions {
   ModelKind kind = ModelKind::quasi_steady;
   CoefficientLaw law = CoefficientLaw::thin_airfoil;  ///< quasi_steady only
@@ -103,6 +114,7 @@ struct AeroOptions {
   WagnerFit wagner_fit = WagnerFit::rt_jones;     ///< lag models only
   ReverseFlow reverse_flow = ReverseFlow::attached;  ///< thin-airfoil loads
   SpanCoupling span_coupling = SpanCoupling::both_wings;  ///< lifting_line only
+  LineSolve line_solve = LineSolve::structured;           ///< lifting_line only
 };
 
 /// Throws InputError for an option out of range.

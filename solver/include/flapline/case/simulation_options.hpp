@@ -34,6 +34,20 @@ struct EnumNames<HistoryKeep> {
       {{HistoryKeep::all, "all"}, {HistoryKeep::last_cycle, "last_cycle"}}};
 };
 
+/// How the lag states are stepped (DESIGN §5).
+enum class Integrator {
+  exponential,  ///< exponential time differencing (ETDRK4) on each strip's own 2×2 lag block
+  rk4           ///< classical fourth-order Runge–Kutta on every state
+};
+template <>
+struct EnumNames<Integrator> {
+  static constexpr std::array<std::pair<Integrator, std::string_view>, 2> items{
+      {{Integrator::exponential, "exponential"}, {Integrator::rk4, "rk4"}}};
+};
+
+/// Default per-process budget of the lifting line's per-phase matrices (MiB).
+inline constexpr int kDefaultCacheMib = 768;
+
 /// Documented limits (configs/README.md).
 inline constexpr int kMinStepsPerCycle = 20;
 inline constexpr int kMinSamplesPerCycle = 4;
@@ -50,6 +64,10 @@ struct SimulationOptions {
   /// Cycle fractions [0, 1) at which the spanwise loading is reported (snapped to samples).
   std::vector<double> spanwise_phases{0.0, 0.25, 0.5, 0.75};
   HistoryKeep history = HistoryKeep::all;
+  Integrator integrator = Integrator::rk4;
+  /// MiB that the per-phase matrices of all lifting-line runs in this process may hold together
+  /// (threads of a study included); phases past it are solved afresh at each stage. [0, 1048576]
+  int cache_mib = kDefaultCacheMib;
 };
 
 /// Throws InputError naming `simulation.<field>`.
