@@ -272,6 +272,7 @@ TEST_CASE("too few steps for the fast lag state is refused before the run; a blo
   s.gait.right.pitch.mean = s.gait.left.pitch.mean = 0.05;
   s.simulation.steps_per_cycle = 20;
   s.simulation.samples_per_cycle = 4;
+  s.simulation.integrator = Integrator::rk4;
   CHECK_THROWS_WITH_AS(simulate(Model(s)), doctest::Contains("simulation.steps_per_cycle"),
                        InputError);
   // Stepping past the limit by hand blows up: the error names time, strip and quantity.

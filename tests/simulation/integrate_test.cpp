@@ -168,12 +168,14 @@ TEST_CASE("the allocation check is per thread: concurrent runs give the serial r
 }
 
 TEST_CASE("run_case turns a failed run into a status") {
-  // Too few RK4 steps for the lag states: a rule that needs the whole case (DESIGN §5). Cosine
+  // Too few RK4 steps for the lag states (simulation.integrator: rk4): a rule that needs the
+  // whole case (DESIGN §5). Cosine
   // strips put a very narrow strip at the tip of the beta planform, whose chord tends to zero.
   ModelSpec s = samples::hover_insect();
   s.aero.kind = ModelKind::wagner;
   s.strips.count = 40;
   s.strips.spacing = StripSpacing::cosine;
+  s.simulation.integrator = Integrator::rk4;
   const Model model(s);
   Workspace ws(model);
   CHECK_THROWS_AS(simulate(model, ws), InputError);

@@ -229,7 +229,7 @@ int compare_command(const CompareArgs& a) {
 
 // --- validate -----------------------------------------------------------------------------------
 struct ValidateArgs {
-  std::string out, only, cases_dir;
+  std::string out, only, cases_dir, integrator;
   bool quiet = false, plot = true;
 };
 
@@ -243,7 +243,9 @@ int validate_command(const ValidateArgs& a) {
   bool all_ok = true;
   for (const auto& spec : cases) {
     const auto t0 = std::chrono::steady_clock::now();
-    results.push_back(validation::run_case(spec));
+    std::vector<std::string> overrides;
+    if (!a.integrator.empty()) overrides.push_back("simulation.integrator=" + a.integrator);
+    results.push_back(validation::run_case(spec, overrides));
     const validation::CaseResult& r = results.back();
     all_ok = all_ok && r.ok();
     if (plots)
@@ -264,8 +266,13 @@ int validate_command(const ValidateArgs& a) {
                       c.quantity.c_str(), c.value, c.reference, c.error, c.tolerance);
     }
   }
-  const std::string note = plots ? "One figure per case beside this report."
-                                 : a.plot ? std::string(kNoGnuplot) + "." : "Figures not requested.";
+  const std::string note =
+      std::string(plots    ? "One figure per case beside this report."
+                  : a.plot ? std::string(kNoGnuplot) + "."
+                           : "Figures not requested.") +
+      (a.integrator.empty() ? " Lag states stepped with each case's integrator (default exponential)."
+                            : " Lag states stepped with simulation.integrator = " + a.integrator +
+                                  " in every case.");
   folder.add("report.md", validation::report_markdown(results, note));
   folder.commit();
   if (!a.quiet)
@@ -403,6 +410,10 @@ int main(int argc, char** argv) {
   cmd_val->add_option("-o,--out", val.out, "Output folder (default: results/validation)");
   cmd_val->add_option("--case", val.only, "Run only this case");
   cmd_val->add_option("--cases-dir", val.cases_dir, "Folder of case folders (default: the built-in one)");
+  cmd_val->add_option("--integrator", val.integrator,
+                      "Step the lag states with this integrator in every case (default: each "
+                      "case's own, i.e. the default exponential)")
+      ->check(CLI::IsMember({"exponential", "rk4"}));
   cmd_val->add_flag("-q,--quiet", val.quiet, "Print nothing");
   cmd_val->add_flag("--plot,!--no-plot", val.plot, "One figure per case with gnuplot (default: on)");
 

@@ -17,6 +17,12 @@ void AeroModel::prepare_run(const Model&, Workspace&) const {}
 
 double AeroModel::stiffest_rate(const Model&, Workspace&, double) const { return 0.0; }
 
+void AeroModel::own_induction(const Model&, Workspace&, double, Eigen::Ref<Eigen::ArrayXd> kappa) const {
+  kappa.setZero();
+}
+
+bool AeroModel::own_induction_varies(const Model&) const { return false; }
+
 const AeroModel& aero_model(ModelKind kind) {
   static const QuasiSteadyModel quasi_steady;
   static const WagnerModel wagner;

@@ -457,6 +457,32 @@ double LiftingLineModel::stiffest_rate(const Model& model, Workspace& ws, double
   return (w.b1 * (1 + 2 * w.a1) + w.b2 * (1 + 2 * w.a2)) * ws.rate.maxCoeff();
 }
 
+void LiftingLineModel::own_induction(const Model& model, Workspace& ws, double t,
+                                     Eigen::Ref<Eigen::ArrayXd> kappa) const {
+  if (model.aero_options().span_coupling == SpanCoupling::none) {
+    kappa.setZero();
+    return;
+  }
+  LiftingLineScratch& s = scratch_of(ws);
+  update_speeds(model, ws, t);
+  horseshoe_geometry(model, ws, s.geometry);
+  // Own horseshoe only: (I − D₀K)Γ = r with K ≈ diag(Kᵢᵢ) gives f = w + KᵢᵢΓ and
+  // ∂f/∂(x₁ + x₂) = Kᵢᵢpᵢ/(1 − D₀ᵢKᵢᵢ).
+  Eigen::Matrix<double, 1, 1> k;
+  for (Eigen::Index i = 0; i < model.strip_count(); ++i) {
+    influence_block(s.geometry, i, 1, i, 1, k);
+    kappa(i) = k(0, 0) * s.p(i) / (1.0 - s.d0(i) * k(0, 0));
+  }
+}
+
+bool LiftingLineModel::own_induction_varies(const Model& model) const {
+  for (int side = 0; side < 2; ++side) {
+    const Waveform& lambda = model.motion(static_cast<Side>(side)).span_ratio;
+    if (lambda.maximum() != lambda.minimum()) return true;
+  }
+  return false;
+}
+
 Eigen::MatrixXd influence_matrix(const Model& model, Workspace& ws, double t) {
   const Eigen::Index n2 = model.strip_count();
   if (model.aero_options().kind != ModelKind::lifting_line) return Eigen::MatrixXd::Zero(n2, n2);

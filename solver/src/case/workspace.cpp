@@ -26,6 +26,7 @@ Workspace::Workspace(const Model& model) { allocate(model); }
 void Workspace::allocate(const Model& model) {
   model_ = &model;
   if (!stepper) stepper = std::make_unique<StepperSlot>();
+  stepper->exponential_ready = false;
   const Eigen::Index n = model.strip_count();
   tangential.setZero(n);
   w_pivot.setZero(n);

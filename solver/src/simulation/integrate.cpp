@@ -45,23 +45,80 @@ double cycle_change(const CycleStats& a, const CycleStats& b, double span) {
   return d == 0.0 ? 0.0 : std::numeric_limits<double>::infinity();
 }
 
-/// RK4's stability region reaches −2.785 on the real axis; refuse a step that is too long for the
-/// fastest state (sampled over the cycle) instead of letting the run blow up.
+/// Sizes the exponential stepper for the Workspace's Model and sets the strips' linear parts
+/// (once per build or reset; the weights of each step phase are cached for periodic kinematics).
+void prepare_exponential(const Model& model, Workspace& ws, const AeroModel& aero) {
+  StepperSlot& st = *ws.stepper;
+  if (st.exponential_ready) return;
+  const Eigen::Index n2 = model.strip_count();
+  const Eigen::Index steps = model.simulation().steps_per_cycle;
+  const double bytes = 12.0 * 8.0 * static_cast<double>(n2) * static_cast<double>(steps);
+  const bool cache = model.periodic_kinematics() && bytes <= 64.0 * 1024 * 1024;
+  st.exponential.resize(n2, cache ? steps : 0);
+  for (Eigen::ArrayXd* a : {&st.kappa, &st.rate0, &st.rate_half, &st.rate1}) a->setZero(n2);
+  aero.own_induction(model, ws, 0.0, st.kappa);
+  st.exponential.set_linear_part(wagner_coefficients(model.aero_options().wagner_fit), st.kappa);
+  st.exponential_ready = true;
+}
+
+/// "N" for a step count, without converting a huge or non-finite value to an integer.
+std::string step_count(double need) {
+  return need < 1e9 ? std::to_string(static_cast<long long>(need)) : "about " + format_number(need);
+}
+
+/// The explicit part of each scheme must stay inside RK4's stability region, which reaches
+/// −2.785 on the real axis: refuse a step that is too long (sampled over the cycle) instead of
+/// letting the run blow up.
+///   rk4: every lag state is explicit; the fastest decays at stiffest_rate.
+///   exponential: each strip's own decay is exact; what stays explicit is the change of U/b within
+///   a step times the strip's rates (ExponentialStepper::explicit_linear_rate).
 void check_step_size(const Model& model, Workspace& ws, const AeroModel& aero) {
   if (ws.state.size() == 0) return;
-  double rate = 0.0;
-  for (int j = 0; j < 64; ++j)
-    rate = std::max(rate, aero.stiffest_rate(model, ws, j * model.period() / 64));
-  const double limit = 2.5;  // a margin below 2.785
+  constexpr double limit = 2.5;  // a margin below 2.785
   const int steps = model.simulation().steps_per_cycle;
-  if (rate * model.period() / steps > limit) {
-    const int need = static_cast<int>(std::ceil(rate * model.period() / limit));
-    throw InputError("simulation.steps_per_cycle", std::to_string(steps),
-                     "must be at least " + std::to_string(need) +
-                         " for this case (the fastest lag state decays at " +
-                         format_number(rate) + " 1/s; RK4 needs rate x step < 2.5)",
-                     "slow flapping of a short chord at high speed needs many steps per cycle");
+  const double period = model.period(), dt = period / steps;
+  const std::string steps_text = std::to_string(steps);
+  if (model.simulation().integrator == Integrator::rk4) {
+    double rate = 0.0, worst_t = 0.0;
+    for (int j = 0; j < 64; ++j) {
+      const double t = j * period / 64, r = aero.stiffest_rate(model, ws, t);
+      if (r > rate) rate = r, worst_t = t;
+    }
+    if (!(rate * dt > limit)) return;
+    update_speeds(model, ws, worst_t);
+    Eigen::Index k = 0;
+    ws.rate.maxCoeff(&k);
+    throw InputError(
+        "simulation.steps_per_cycle", steps_text,
+        "must be at least " + step_count(std::ceil(rate * period / limit)) +
+            " for this case with simulation.integrator: rk4 (the fastest lag state decays at " +
+            format_number(rate) + " 1/s, on " + strip_name(model, k) + ", chord " +
+            format_number(model.pair().chord(k) * 1e3) + " mm; RK4 needs rate x step < 2.5)",
+        "a narrow strip moving fast (a chord tapering to zero at the tip, cosine strips, a short "
+        "chord at high speed) decays fastest: simulation.integrator: exponential treats each "
+        "strip's own decay exactly");
   }
+  prepare_exponential(model, ws, aero);
+  StepperSlot& st = *ws.stepper;
+  double rate = 0.0;
+  for (int j = 0; j < 64; ++j) {
+    const double t = std::floor(j * steps / 64.0) * dt;
+    update_speeds(model, ws, t);
+    st.rate0 = ws.rate;
+    update_speeds(model, ws, t + 0.5 * dt);
+    st.rate_half = ws.rate;
+    update_speeds(model, ws, t + dt);
+    st.rate1 = ws.rate;
+    rate = std::max(rate, st.exponential.explicit_linear_rate(st.rate0, st.rate_half, st.rate1));
+  }
+  if (!(rate * dt > limit)) return;
+  throw InputError("simulation.steps_per_cycle", steps_text,
+                   "must be at least " + step_count(std::ceil(std::sqrt(rate * dt / limit) * steps)) +
+                       " for this case: U/b changes so much within a step that the part the "
+                       "exponential integrator leaves explicit acts at " +
+                       format_number(rate) + " 1/s (it needs rate x step < 2.5)",
+                   "an abrupt stroke reversal of a narrow strip: raise the steps or smooth the "
+                   "stroke waveform");
 }
 
 /// The step loop: whole cycles of RK4 steps, loads at the output samples, until the cycle means
@@ -113,16 +170,40 @@ CycleOutcome run_cycles(const Model& model, Workspace& ws, const RunControl& con
   return o;
 }
 
+/// One ETDRK4 step of ws.state (case/exponential_stepper.hpp).
+void exponential_step(const Model& model, Workspace& ws, const AeroModel& aero, double t,
+                      double dt) {
+  prepare_exponential(model, ws, aero);
+  StepperSlot& st = *ws.stepper;
+  const NoMallocScope no_malloc;
+  if (aero.own_induction_varies(model)) {  // a folding wing: the linear part at the step start
+    aero.own_induction(model, ws, t, st.kappa);
+    st.exponential.set_linear_part(wagner_coefficients(model.aero_options().wagner_fit), st.kappa);
+  }
+  st.rate0 = stage_speeds(model, ws, t).rate;
+  st.rate_half = stage_speeds(model, ws, t + 0.5 * dt).rate;
+  st.rate1 = stage_speeds(model, ws, t + dt).rate;
+  const Eigen::Index phase =
+      cycle_slot(t, model.frequency(), static_cast<Eigen::Index>(model.simulation().steps_per_cycle));
+  st.exponential.step(
+      [&](const Eigen::VectorXd& x, double time, Eigen::VectorXd& dxdt) {
+        aero.derivative(model, ws, time, x, dxdt);
+      },
+      ws.state, t, dt, st.rate0, st.rate_half, st.rate1, model.periodic_kinematics() ? phase : -1);
+}
+
 }  // namespace
 
 void advance(const Model& model, Workspace& ws, double t, double dt) {
   assert(ws.built_for(model) && "a Workspace serves the Model it was built or reset for");
   const AeroModel& aero = aero_model(model);
-  auto system = [&](const Eigen::VectorXd& x, Eigen::VectorXd& dxdt, double time) {
-    aero.derivative(model, ws, time, x, dxdt);
-  };
-  ws.stepper->rk4.adjust_size(ws.state);  // sizes the stepper's buffers once; a no-op afterwards
-  {
+  if (model.simulation().integrator == Integrator::exponential && ws.state.size() > 0) {
+    exponential_step(model, ws, aero, t, dt);
+  } else {
+    auto system = [&](const Eigen::VectorXd& x, Eigen::VectorXd& dxdt, double time) {
+      aero.derivative(model, ws, time, x, dxdt);
+    };
+    ws.stepper->rk4.adjust_size(ws.state);  // sizes the stepper's buffers once; a no-op afterwards
     const NoMallocScope no_malloc;  // proves the step allocation-free in FLAPLINE_CHECK_NO_MALLOC builds
     ws.stepper->rk4.do_step(system, ws.state, t, dt);
   }

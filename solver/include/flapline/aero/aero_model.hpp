@@ -46,6 +46,15 @@ class AeroModel {
   /// stability check (0 without states).
   virtual double stiffest_rate(const Model& model, Workspace& ws, double t) const;
 
+  /// κ of every strip at time t: ∂f/∂(x₁ + x₂), the change of the strip's forcing normal-wash
+  /// with its own lag states through its own trailing vortices — the part of the lag equations
+  /// that the exponential integrator treats exactly (case/exponential_stepper.hpp). 0 by default.
+  virtual void own_induction(const Model& model, Workspace& ws, double t,
+                             Eigen::Ref<Eigen::ArrayXd> kappa) const;
+
+  /// True when κ changes over the cycle (a folding wing on the lifting line).
+  virtual bool own_induction_varies(const Model& model) const;
+
   /// Per-strip loads at time t into ws.loads. ws.sections must already hold the kinematics at t
   /// (update_sections). Called at output times only.
   virtual void loads(const Model& model, Workspace& ws, double t,

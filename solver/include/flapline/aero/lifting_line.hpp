@@ -38,6 +38,9 @@ class LiftingLineModel final : public AeroModel {
                   Eigen::VectorXd& dxdt) const override;
   void loads(const Model& model, Workspace& ws, double t, const Eigen::VectorXd& x) const override;
   double stiffest_rate(const Model& model, Workspace& ws, double t) const override;
+  void own_induction(const Model& model, Workspace& ws, double t,
+                     Eigen::Ref<Eigen::ArrayXd> kappa) const override;
+  bool own_induction_varies(const Model& model) const override;
 };
 
 /// Horseshoe geometry of all 2N strips in body axes at the poses in ws.poses.

@@ -64,7 +64,7 @@ struct SimulationOptions {
   /// Cycle fractions [0, 1) at which the spanwise loading is reported (snapped to samples).
   std::vector<double> spanwise_phases{0.0, 0.25, 0.5, 0.75};
   HistoryKeep history = HistoryKeep::all;
-  Integrator integrator = Integrator::rk4;
+  Integrator integrator = Integrator::exponential;
   /// MiB that the per-phase matrices of all lifting-line runs in this process may hold together
   /// (threads of a study included); phases past it are solved afresh at each stage. [0, 1048576]
   int cache_mib = kDefaultCacheMib;

@@ -54,7 +54,9 @@ std::vector<CaseSpec> load_cases(const std::filesystem::path& dir, const std::st
 
 /// Run one case: compute flapline's values and the references, compare with each check's
 /// tolerance. Never throws: a case that cannot run reports a failure.
-CaseResult run_case(const CaseSpec& spec);
+/// `overrides` (key=value) apply to every model the case loads, after the case's own (e.g.
+/// `simulation.integrator=rk4`).
+CaseResult run_case(const CaseSpec& spec, const std::vector<std::string>& overrides = {});
 
 /// Names of the cases this build knows how to run.
 std::vector<std::string> known_cases();
