@@ -33,7 +33,7 @@ TEST_CASE("uniform and cosine strips tile the span; centres never at the tip") {
   CHECK(c.width(15) < c.width(0));
   CHECK(c.edge_radius(1) == doctest::Approx(std::sin(kPi / 32)).epsilon(1e-14));
   CHECK(c.radius(0) == doctest::Approx(std::sin(kPi / 64)).epsilon(1e-14));
-  CHECK(StripSpec{}.spacing == StripSpacing::uniform);  // the default
+  CHECK(StripSpec{}.spacing == StripSpacing::cosine);  // the default
 }
 
 TEST_CASE("strip count out of range is an input error") {

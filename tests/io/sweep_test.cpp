@@ -145,7 +145,8 @@ TEST_CASE("a case refused per case is a row with its status; the sweep goes on a
   std::ofstream(cases / "cases.csv") << "# spacing per case\nwing.strip_spacing,gait.frequency\n"
                                         "uniform,\ncosine,\n,22\n~,20\n";
   REQUIRE(sweep(config("hover_insect.yaml") + " --cases \"" + (cases / "cases.csv").string() +
-                    "\" --set model.kind=wagner --set wing.strips=40 --set simulation.integrator=rk4 -o \"" +
+                    "\" --set model.kind=wagner --set wing.strips=40 --set simulation.integrator=rk4"
+                    " --set wing.strip_spacing=uniform -o \"" +
                     (cases / "out").string() + "\"",
                 log) == 5);  // documented: some case failed
   const auto rows = table(cases / "out" / "sweep.csv");
@@ -156,7 +157,8 @@ TEST_CASE("a case refused per case is a row with its status; the sweep goes on a
   CHECK(rows[2][5].empty());
   CHECK(rows[3][3] == "converged");
   CHECK(rows[3][1].empty());  // base value kept
-  CHECK(rows[4][1] == "~");   // key removed: the default spacing
+  CHECK(rows[4][1] == "~");   // key removed: the default spacing (cosine), refused with RK4
+  CHECK(rows[4][3] == "input_error");
 }
 
 TEST_CASE("bad sweep input: one line, exit 2, nothing written") {

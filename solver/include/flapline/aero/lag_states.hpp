@@ -26,10 +26,10 @@ inline void lag_derivative(const WagnerCoefficients& w, const Eigen::Ref<const E
 /// Fills `forcing` (size 2N) with the forcing normal-wash at time t.
 using LagForcing = std::function<void(double t, Eigen::ArrayXd& forcing)>;
 
-/// Lag states on the periodic orbit at t = 0 for a forcing that depends on time only: one RK4
-/// cycle (the run's step) of the forced equations from zero gives x_T, one of the homogeneous
-/// ones from one gives each state's amplification Φ, and x₀ = x_T/(1 − Φ) — exact for the
-/// discrete map, since every state obeys its own linear equation.
+/// Lag states on the periodic orbit at t = 0 for a forcing that depends on time only: one cycle
+/// of the run's steps (its integrator and step) of the forced equations from zero gives x_T, one
+/// of the homogeneous ones from one gives each state's amplification Φ, and x₀ = x_T/(1 − Φ) —
+/// exact for the discrete map, since every state obeys its own linear equation.
 void periodic_lag_state(const Model& model, Workspace& ws, const LagForcing& forcing,
                         Eigen::VectorXd& x);
 

@@ -24,7 +24,7 @@ struct EnumNames<StripSpacing> {
 /// Key paths in errors: `wing.strips`, `wing.strip_spacing`.
 struct StripSpec {
   int count = 20;  ///< strips per wing, [1, 400]
-  StripSpacing spacing = StripSpacing::uniform;
+  StripSpacing spacing = StripSpacing::cosine;
 };
 
 /// One wing's strips. Every array has one entry per strip (N) except the edge arrays (N + 1).
