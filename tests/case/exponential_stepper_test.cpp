@@ -115,7 +115,7 @@ TEST_CASE("cosine strips on the hover demo at 400 steps: the exponential integra
     CAPTURE(static_cast<int>(kind));
     s.aero.kind = kind;
     s.strips.spacing = StripSpacing::cosine;
-    s.simulation.tolerance = 1e-10;
+    s.simulation.tolerance = 1e-8;
     s.simulation.integrator = Integrator::exponential;
     const RunSummary fast = simulate(Model(s));
     CHECK(fast.status == RunStatus::converged);

@@ -194,13 +194,15 @@ void ExponentialStepper::remainder(const Eigen::ArrayXd& y1, const Eigen::ArrayX
   n2 = w21_ * f1 + w22_ * f2 - mean_rate_ * mu2_ * y2;
 }
 
-double ExponentialStepper::explicit_linear_rate(const Eigen::Ref<const Eigen::ArrayXd>& rate0,
-                                                const Eigen::Ref<const Eigen::ArrayXd>& rate_half,
-                                                const Eigen::Ref<const Eigen::ArrayXd>& rate1) const {
+double ExponentialStepper::explicit_gain(const Eigen::Ref<const Eigen::ArrayXd>& rate0,
+                                         const Eigen::Ref<const Eigen::ArrayXd>& rate_half,
+                                         const Eigen::Ref<const Eigen::ArrayXd>& rate1,
+                                         double h) const {
   const Eigen::ArrayXd mean = (rate0 + 4.0 * rate_half + rate1) / 6.0;
   const Eigen::ArrayXd spread =
       (rate0 - mean).abs().max((rate_half - mean).abs()).max((rate1 - mean).abs());
-  return (spread * mu1_.abs().max(mu2_.abs())).maxCoeff();
+  const Eigen::ArrayXd mu = mu1_.abs().max(mu2_.abs());
+  return (h * spread * mu / (h * mean * mu).max(1.0)).maxCoeff();
 }
 
 }  // namespace flapline

@@ -71,7 +71,7 @@ std::string step_count(double need) {
 /// letting the run blow up.
 ///   rk4: every lag state is explicit; the fastest decays at stiffest_rate.
 ///   exponential: each strip's own decay is exact; what stays explicit is the change of U/b within
-///   a step times the strip's rates (ExponentialStepper::explicit_linear_rate).
+///   a step times the strip's rates (ExponentialStepper::explicit_gain).
 void check_step_size(const Model& model, Workspace& ws, const AeroModel& aero) {
   if (ws.state.size() == 0) return;
   constexpr double limit = 2.5;  // a margin below 2.785
@@ -100,7 +100,7 @@ void check_step_size(const Model& model, Workspace& ws, const AeroModel& aero) {
   }
   prepare_exponential(model, ws, aero);
   StepperSlot& st = *ws.stepper;
-  double rate = 0.0;
+  double gain = 0.0;
   for (int j = 0; j < 64; ++j) {
     const double t = std::floor(j * steps / 64.0) * dt;
     update_speeds(model, ws, t);
@@ -109,14 +109,14 @@ void check_step_size(const Model& model, Workspace& ws, const AeroModel& aero) {
     st.rate_half = ws.rate;
     update_speeds(model, ws, t + dt);
     st.rate1 = ws.rate;
-    rate = std::max(rate, st.exponential.explicit_linear_rate(st.rate0, st.rate_half, st.rate1));
+    gain = std::max(gain, st.exponential.explicit_gain(st.rate0, st.rate_half, st.rate1, dt));
   }
-  if (!(rate * dt > limit)) return;
+  if (!(gain > limit)) return;
   throw InputError("simulation.steps_per_cycle", steps_text,
-                   "must be at least " + step_count(std::ceil(std::sqrt(rate * dt / limit) * steps)) +
+                   "must be at least " + step_count(std::ceil(gain / limit * steps)) +
                        " for this case: U/b changes so much within a step that the part the "
-                       "exponential integrator leaves explicit acts at " +
-                       format_number(rate) + " 1/s (it needs rate x step < 2.5)",
+                       "exponential integrator leaves explicit has a gain of " +
+                       format_number(gain) + " per step (it needs < 2.5)",
                    "an abrupt stroke reversal of a narrow strip: raise the steps or smooth the "
                    "stroke waveform");
 }
