@@ -3,8 +3,15 @@
 #include <algorithm>
 #include <array>
 #include <atomic>
+#include <cstdlib>
+#include <memory>
+#include <new>
 #include <cassert>
 #include <vector>
+
+#ifdef __linux__
+#include <sys/mman.h>
+#endif
 
 #include "flapline/aero/lag_states.hpp"
 #include "flapline/aero/section_loads.hpp"
@@ -52,13 +59,32 @@ class CacheLease {
   long long held_ = 0;
 };
 
-using Permutation = Eigen::PermutationMatrix<Eigen::Dynamic, Eigen::Dynamic, int>;
+/// Memory of the per-phase factors: one block, on transparent huge pages where the system offers
+/// them, so that filling it during the first cycle costs one page fault per 2 MiB rather than
+/// per 4 kB (most of the first cycle's cost at 200 strips per wing otherwise).
+class FactorStore {
+ public:
+  /// A block of at least `doubles` values (the previous block is kept when it is large enough;
+  /// its contents are not cleared).
+  double* reserve(std::size_t doubles) {
+    if (doubles <= capacity_) return data_.get();
+    constexpr std::size_t huge = std::size_t{2} << 20;
+    const std::size_t bytes = (doubles * sizeof(double) + huge - 1) / huge * huge;
+    data_.reset(static_cast<double*>(std::aligned_alloc(huge, bytes)));
+    if (!data_) throw std::bad_alloc();
+#ifdef MADV_HUGEPAGE
+    madvise(data_.get(), bytes, MADV_HUGEPAGE);  // advice only: failure leaves 4 kB pages
+#endif
+    capacity_ = bytes / sizeof(double);
+    return data_.get();
+  }
 
-/// Partial-pivoting factors of one stage phase: mirror: the + half's LU in the left N columns and
-/// the − half's in the right ones; otherwise the LU of the whole 2N system.
-struct PhaseFactors {
-  Eigen::MatrixXd lu;
-  Permutation perm, perm2;
+ private:
+  struct Free {
+    void operator()(double* p) const { std::free(p); }
+  };
+  std::unique_ptr<double, Free> data_;
+  std::size_t capacity_ = 0;
 };
 
 /// Per-run buffers of the lifting line.
@@ -74,9 +100,14 @@ struct LiftingLineScratch final : AeroScratch {
   /// system splits into a symmetric and an antisymmetric half of N strips each.
   bool mirror = false;
   bool direct = false;  ///< model.line_solve = direct
-  /// Per stage phase: the factors of I − D₀(K_RR ± K_RL) (mirror) or of I − D₀K. Filled during
-  /// the first cycle; phases past the budget are factorised afresh at each stage.
-  std::vector<PhaseFactors> cache;
+  /// Per stage phase: the LU factors of I − D₀(K_RR ± K_RL) (mirror: the + half in the left N
+  /// columns, the − half in the right ones) or of I − D₀K (rows × 2N doubles from `factors`), and
+  /// their row permutations (2N indices from `pivots`). Filled during the first cycle; phases past
+  /// the budget are factorised afresh at each stage.
+  FactorStore store;
+  double* factors = nullptr;
+  std::vector<int> pivots;
+  Eigen::Index factor_rows = 0;
   std::vector<char> filled;
   Eigen::Index cached_slots = 0;  ///< slots [0, cached_slots) may be cached
   Eigen::Index phase_slots = 0;   ///< stage phases per cycle (0: no phase cache)
@@ -166,19 +197,21 @@ void factorise(const Model& model, Workspace& ws, LiftingLineScratch& s) {
   s.lu.compute(s.S);
 }
 
-/// Solves LU y = P r in place (y holds r on entry) with stored partial-pivoting factors.
-void solve_with(const Eigen::Ref<const Eigen::MatrixXd>& factors, const Permutation& perm,
+/// Solves LU y = P r in place (y holds r on entry) with partial-pivoting factors and the row
+/// permutation as indices ((P r)[perm[i]] = r[i]).
+void solve_with(const Eigen::Ref<const Eigen::MatrixXd>& factors, const int* perm,
                 Eigen::VectorXd& y, Eigen::VectorXd& work) {
-  work.noalias() = perm * y;
+  for (Eigen::Index i = 0; i < y.size(); ++i) work(perm[i]) = y(i);
   factors.triangularView<Eigen::UnitLower>().solveInPlace(work);
   factors.triangularView<Eigen::Upper>().solveInPlace(work);
   y.swap(work);
 }
 
-/// Γ from s.rhs with the factors in lu/lu2 (`factorise`) or stored ones.
-void solve_factors(const Model& model, LiftingLineScratch& s, const Eigen::MatrixXd& lu_sum,
-                   const Permutation& perm_sum, const Eigen::MatrixXd* lu_difference,
-                   const Permutation* perm_difference) {
+/// Γ from s.rhs with LU factors: the whole system's (`sum` only) or the mirror halves'.
+void solve_factors(const Model& model, LiftingLineScratch& s,
+                   const Eigen::Ref<const Eigen::MatrixXd>& lu_sum, const int* perm_sum,
+                   const Eigen::Ref<const Eigen::MatrixXd>& lu_difference,
+                   const int* perm_difference) {
   const Eigen::Index n = model.strips_per_wing();
   if (!s.mirror) {
     s.y_sum = s.rhs;
@@ -188,13 +221,8 @@ void solve_factors(const Model& model, LiftingLineScratch& s, const Eigen::Matri
   }
   s.y_sum = 0.5 * (s.rhs.head(n) + s.rhs.tail(n));
   s.y_difference = 0.5 * (s.rhs.head(n) - s.rhs.tail(n));
-  if (lu_difference) {  // separate factors
-    solve_with(lu_sum, perm_sum, s.y_sum, s.y_work);
-    solve_with(*lu_difference, *perm_difference, s.y_difference, s.y_work);
-  } else {  // stored side by side
-    solve_with(lu_sum.leftCols(n), perm_sum, s.y_sum, s.y_work);
-    solve_with(lu_sum.rightCols(n), *perm_difference, s.y_difference, s.y_work);
-  }
+  solve_with(lu_sum, perm_sum, s.y_sum, s.y_work);
+  solve_with(lu_difference, perm_difference, s.y_difference, s.y_work);
   s.gamma.head(n) = s.y_sum + s.y_difference;
   s.gamma.tail(n) = s.y_sum - s.y_difference;
 }
@@ -228,25 +256,28 @@ void solve_stage(const Model& model, Workspace& ws, double t, const Eigen::Vecto
   else if (s.phase_slots > 0)
     slot = cycle_slot(t, model.frequency(), s.phase_slots);
   if (slot >= s.cached_slots) slot = -1;
+  const Eigen::Index n = model.strips_per_wing(), rows = s.factor_rows;
   if (slot >= 0 && s.filled[static_cast<std::size_t>(slot)]) {
-    const PhaseFactors& f = s.cache[static_cast<std::size_t>(slot)];
-    solve_factors(model, s, f.lu, f.perm, nullptr, &f.perm2);
+    const double* f = s.factors + slot * rows * 2 * n;
+    const int* p = s.pivots.data() + slot * 2 * rows;
+    using Block = Eigen::Map<const Eigen::MatrixXd>;
+    if (s.mirror)
+      solve_factors(model, s, Block(f, n, n), p, Block(f + n * n, n, n), p + n);
+    else
+      solve_factors(model, s, Block(f, rows, rows), p, Block(f, rows, rows), p);
   } else {
     if (!poses_current) update_speeds(model, ws, t);  // poses at t (stage arrays are not read)
     factorise(model, ws, s);
-    solve_factors(model, s, s.lu.matrixLU(), s.lu.permutationP(), &s.lu2.matrixLU(),
-                  &s.lu2.permutationP());
+    solve_factors(model, s, s.lu.matrixLU(), s.lu.permutationP().indices().data(),
+                  s.lu2.matrixLU(), s.lu2.permutationP().indices().data());
     if (slot >= 0) {
-      PhaseFactors& f = s.cache[static_cast<std::size_t>(slot)];
-      const Eigen::Index n = model.strips_per_wing();
+      double* f = s.factors + slot * rows * 2 * n;
+      int* p = s.pivots.data() + slot * 2 * rows;
+      Eigen::Map<Eigen::MatrixXd>(f, rows, rows) = s.lu.matrixLU();
+      Eigen::Map<Eigen::VectorXi>(p, rows) = s.lu.permutationP().indices();
       if (s.mirror) {
-        f.lu.leftCols(n) = s.lu.matrixLU();
-        f.lu.rightCols(n) = s.lu2.matrixLU();
-        f.perm = s.lu.permutationP();
-        f.perm2 = s.lu2.permutationP();
-      } else {
-        f.lu = s.lu.matrixLU();
-        f.perm = s.lu.permutationP();
+        Eigen::Map<Eigen::MatrixXd>(f + n * n, n, n) = s.lu2.matrixLU();
+        Eigen::Map<Eigen::VectorXi>(p + n, n) = s.lu2.permutationP().indices();
       }
       s.filled[static_cast<std::size_t>(slot)] = 1;
     }
@@ -341,13 +372,19 @@ Eigen::Index LiftingLineModel::state_size(const Model& model) const {
   return 2 * model.strip_count();
 }
 
+namespace {
+/// The per-phase factor cache for a run (within the process budget); every slot empty.
+void allocate_factor_cache(const Model& model, LiftingLineScratch& s);
+}  // namespace
+
 std::unique_ptr<AeroScratch> LiftingLineModel::make_scratch(
     const Model& model, std::unique_ptr<AeroScratch> previous) const {
   auto s = std::make_unique<LiftingLineScratch>();
   if (previous && previous->kind == ModelKind::lifting_line) {
     // Keep the per-phase factors' allocations; prepare_run marks every slot empty.
     auto& old = static_cast<LiftingLineScratch&>(*previous);
-    s->cache = std::move(old.cache);
+    s->store = std::move(old.store);
+    s->pivots = std::move(old.pivots);
   }
   const Eigen::Index n2 = model.strip_count(), n = model.strips_per_wing();
   const WagnerCoefficients w = wagner_coefficients(model.aero_options().wagner_fit);
@@ -381,11 +418,18 @@ std::unique_ptr<AeroScratch> LiftingLineModel::make_scratch(
   s->y_work.setZero(m);
   s->static_geometry = !moving && model.aero_options().span_coupling != SpanCoupling::none;
   s->kind = ModelKind::lifting_line;
+  // A fixed wing needs one slot, ready for code that steps without simulate() (prepare_run).
+  if (s->static_geometry) allocate_factor_cache(model, *s);
   return s;
 }
 
 void LiftingLineModel::prepare_run(const Model& model, Workspace& ws) const {
-  LiftingLineScratch& s = scratch_of(ws);
+  allocate_factor_cache(model, scratch_of(ws));
+}
+
+namespace {
+
+void allocate_factor_cache(const Model& model, LiftingLineScratch& s) {
   s.filled.clear();
   s.cached_slots = s.phase_slots = 0;
   s.lease.release();
@@ -399,15 +443,14 @@ void LiftingLineModel::prepare_run(const Model& model, Workspace& ws) const {
   const long long granted = s.lease.request(slot_bytes * slots, budget);
   s.phase_slots = s.static_geometry ? 0 : slots;
   s.cached_slots = static_cast<Eigen::Index>(granted / slot_bytes);
-  // Slots are read only once filled, so reused matrices need no clearing.
-  s.cache.resize(static_cast<std::size_t>(s.cached_slots));
-  for (PhaseFactors& f : s.cache) {
-    f.lu.resize(rows, 2 * n);
-    f.perm.resize(rows);
-    f.perm2.resize(s.mirror ? rows : 0);
-  }
+  // Slots are read only once filled, so reused memory needs no clearing.
+  s.factor_rows = rows;
+  s.factors = s.store.reserve(static_cast<std::size_t>(s.cached_slots * rows * 2 * n));
+  s.pivots.resize(static_cast<std::size_t>(s.cached_slots * 2 * rows));
   s.filled.assign(static_cast<std::size_t>(s.cached_slots), 0);
 }
+
+}  // namespace
 
 void LiftingLineModel::initial_state(const Model& model, Workspace& ws, double t, StartMode start,
                                      Eigen::VectorXd& x) const {
@@ -476,6 +519,7 @@ void LiftingLineModel::own_induction(const Model& model, Workspace& ws, double t
 }
 
 bool LiftingLineModel::own_induction_varies(const Model& model) const {
+  if (model.aero_options().span_coupling == SpanCoupling::none) return false;
   for (int side = 0; side < 2; ++side) {
     const Waveform& lambda = model.motion(static_cast<Side>(side)).span_ratio;
     if (lambda.maximum() != lambda.minimum()) return true;
