@@ -122,7 +122,7 @@ TEST_CASE("cosine strips on the hover demo at 400 steps: the exponential integra
     ModelSpec r = s;
     r.simulation.integrator = Integrator::rk4;
     CHECK_THROWS_AS(simulate(Model(r)), InputError);  // RK4 at 400 steps is refused
-    r.simulation.steps_per_cycle = 2000;
+    r.simulation.steps_per_cycle = 1200;
     const RunSummary ref = simulate(Model(r));
     CHECK(ref.status == RunStatus::converged);
     CHECK(fast.mean_lift() == doctest::Approx(ref.mean_lift()).epsilon(1e-6));
