@@ -68,6 +68,35 @@ TEST_CASE("phi-functions agree with the Kassam-Trefethen contour mean across the
   }
 }
 
+TEST_CASE("the stepper's weights for all strips equal etd_weights strip by strip") {
+  const WagnerCoefficients w = wagner_coefficients(WagnerFit::rt_jones);
+  const Eigen::ArrayXd kappa = (Eigen::ArrayXd(6) << 0.0, -0.1, -0.5, -0.9, -1.5, -3.0).finished();
+  // Rates spanning both branches (|z| from 1e-7 to 300 across the two modes).
+  const Eigen::ArrayXd rate = (Eigen::ArrayXd(6) << 1e-3, 40.0, 160.0, 330.0, 2000.0, 3e5).finished();
+  ExponentialStepper st;
+  st.resize(6, 0);
+  st.set_linear_part(w, kappa);
+  Eigen::VectorXd x = Eigen::VectorXd::Zero(12);
+  const double h = 0.01;
+  st.step([](const Eigen::VectorXd&, double, Eigen::VectorXd& d) { d.setZero(12); }, x, 0.0, h,
+          rate, rate, rate, -1);
+  const Eigen::ArrayXXd& c = st.last_weights();
+  for (Eigen::Index i = 0; i < 6; ++i) {
+    // The strip's eigenvalues (analytic, 2×2): m ± r.
+    const double k = kappa(i), a = w.b1 * (w.a1 * k - 1), b = w.b1 * w.a1 * k;
+    const double cc = w.b2 * w.a2 * k, d = w.b2 * (w.a2 * k - 1);
+    const double m = 0.5 * (a + d), r = std::sqrt(0.25 * (a - d) * (a - d) + b * cc);
+    for (int mode = 0; mode < 2; ++mode) {
+      const double z = h * rate(i) * (mode == 0 ? m + r : m - r);
+      CAPTURE(z);
+      const EtdWeights e = etd_weights(z);
+      const double expected[6] = {e.e_half, e.e_full, h * e.q, h * e.f1, h * e.f2, h * e.f3};
+      for (int j = 0; j < 6; ++j)
+        CHECK(c(i, 6 * mode + j) == doctest::Approx(expected[j]).epsilon(1e-13));
+    }
+  }
+}
+
 TEST_CASE("one strip, constant forcing, step x rate = 50: the exact equilibrium") {
   // dx_k/dt = σ b_k (A_k g − x_k) (analytic equilibrium x_k = A_k g); with κ ≠ 0 the strip's own
   // 2×2 block σ(Lx + b∘A g): equilibrium x = −L⁻¹(b∘A g).

@@ -331,7 +331,7 @@ int main(int argc, char** argv) {
       ->check(CLI::IsMember({"quasi_steady", "wagner", "lifting_line"}));
   cmd_cmp->add_option("--strips", cmp.strips, "Strips per wing for every case (default: the first config's)")
       ->check(CLI::Range(1, 400));
-  cmd_cmp->add_option("--steps", cmp.steps, "RK4 steps per cycle for every case (default: the first config's)")
+  cmd_cmp->add_option("--steps", cmp.steps, "Steps per cycle for every case (default: the first config's)")
       ->check(CLI::Range(20, 100000));
   cmd_cmp->add_option("--set", cmp.sets, "Override a key in every config")->take_all();
   cmd_cmp->add_flag("-q,--quiet", cmp.quiet, "Print nothing on success");

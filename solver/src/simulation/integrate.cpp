@@ -121,7 +121,7 @@ void check_step_size(const Model& model, Workspace& ws, const AeroModel& aero) {
                    "stroke waveform");
 }
 
-/// The step loop: whole cycles of RK4 steps, loads at the output samples, until the cycle means
+/// The step loop: whole cycles of steps, loads at the output samples, until the cycle means
 /// stop changing or the cap is reached (DESIGN §5).
 CycleOutcome run_cycles(const Model& model, Workspace& ws, const RunControl& control,
                         SpanwiseAccumulator& spanwise, std::vector<HistoryRow>& history) {

@@ -250,10 +250,12 @@ void start_summary(const Model& model, RunSummary& out) {
   if (out.model == ModelKind::quasi_steady)
     out.model_label += " (" + std::string(to_string(ao.law)) + ")";
   else if (out.model == ModelKind::wagner)
-    out.model_label += " (" + std::string(to_string(ao.wagner_fit)) + " fit)";
+    out.model_label += " (" + std::string(to_string(ao.wagner_fit)) + " fit, " +
+                       std::string(to_string(model.simulation().integrator)) + " steps)";
   else
     out.model_label += " (" + std::string(to_string(ao.wagner_fit)) + " fit, " +
-                       std::string(to_string(ao.span_coupling)) + ")";
+                       std::string(to_string(ao.span_coupling)) + ", " +
+                       std::string(to_string(model.simulation().integrator)) + " steps)";
   out.frequency = model.frequency();
   out.steps_per_cycle = model.simulation().steps_per_cycle;
   out.samples_per_cycle = model.simulation().samples_per_cycle;

@@ -60,6 +60,10 @@ class ExponentialStepper {
   /// strip and mode h|σ(stage) − σ̄||μ|, damped by the exact part's weights (≈ 1/|z| for
   /// |z| = hσ̄|μ| > 1, so a stiff strip contributes its relative change of σ within the step);
   /// the largest over the strips. Explicit RK-type stages stay stable below about 2.5.
+  /// The weights of the last step, per strip: e^{z/2}, e^{z}, hq, hf₁, hf₂, hf₃ of mode 1, then
+  /// of mode 2 (etd_weights, computed for all strips at once).
+  const Eigen::ArrayXXd& last_weights() const { return *w_; }
+
   double explicit_gain(const Eigen::Ref<const Eigen::ArrayXd>& rate0,
                        const Eigen::Ref<const Eigen::ArrayXd>& rate_half,
                        const Eigen::Ref<const Eigen::ArrayXd>& rate1, double h) const;
@@ -77,8 +81,12 @@ class ExponentialStepper {
   // Per strip: eigenvalues μ₁, μ₂ of Lᵢ, V (columns = eigenvectors) and V⁻¹.
   Eigen::ArrayXd mu1_, mu2_, v11_, v12_, v21_, v22_, w11_, w12_, w21_, w22_;
   Eigen::ArrayXd mean_rate_;
-  // Weights per mode: e^{z/2}, e^{z}, hq, hf₁, hf₂, hf₃ (columns 0..5 mode 1, 6..11 mode 2).
-  Eigen::ArrayXXd c_;
+  // Weights per mode: e^{z/2}, e^{z}, hq, hf₁, hf₂, hf₃ (columns 0..5 mode 1, 6..11 mode 2), of
+  // the current step: w_ points at a phase's cached block or at own_.
+  Eigen::ArrayXXd own_;
+  Eigen::ArrayXd z_, half_, t1_, t2_, t3_, t4_;  // weights() work arrays
+  Eigen::Array<bool, Eigen::Dynamic, 1> small_;
+  const Eigen::ArrayXXd* w_ = nullptr;
   std::vector<Eigen::ArrayXXd> cache_;
   std::vector<char> filled_;
   Eigen::ArrayXd y1_, y2_, a1_, a2_, b1_, b2_, c1_, c2_, nu1_, nu2_, na1_, na2_, nb1_, nb2_, nc1_,
@@ -93,12 +101,13 @@ void ExponentialStepper::step(Derivative&& derivative, Eigen::VectorXd& x, doubl
                               const Eigen::Ref<const Eigen::ArrayXd>& rate1, Eigen::Index phase) {
   mean_rate_ = (rate0 + 4.0 * rate_half + rate1) / 6.0;  // Δs/h, Simpson's rule
   weights(h, phase);
-  const auto E2 = [&](int m) { return c_.col(6 * m + 0); };
-  const auto E = [&](int m) { return c_.col(6 * m + 1); };
-  const auto Q = [&](int m) { return c_.col(6 * m + 2); };
-  const auto F1 = [&](int m) { return c_.col(6 * m + 3); };
-  const auto F2 = [&](int m) { return c_.col(6 * m + 4); };
-  const auto F3 = [&](int m) { return c_.col(6 * m + 5); };
+  const Eigen::ArrayXXd& c = *w_;
+  const auto E2 = [&](int m) { return c.col(6 * m + 0); };
+  const auto E = [&](int m) { return c.col(6 * m + 1); };
+  const auto Q = [&](int m) { return c.col(6 * m + 2); };
+  const auto F1 = [&](int m) { return c.col(6 * m + 3); };
+  const auto F2 = [&](int m) { return c.col(6 * m + 4); };
+  const auto F3 = [&](int m) { return c.col(6 * m + 5); };
   to_modes(x, y1_, y2_);
   derivative(x, t, f_);
   remainder(y1_, y2_, nu1_, nu2_);

@@ -64,7 +64,7 @@ class Workspace {
   Eigen::ArrayXd speed;            ///< U (m/s)
   Eigen::ArrayXd rate;             ///< U/b, semichords travelled per second (1/s)
   std::vector<SectionState> sections;  ///< full kinematics at output times (update_sections)
-  /// Stage cache (stage_speeds): U/b and w_¾ of every strip at each of the 2·steps_per_cycle RK4
+  /// Stage cache (stage_speeds): U/b and w_¾ of every strip at each of the 2·steps_per_cycle
   /// stage phases, filled during the first cycle. Empty when the kinematics are not periodic or
   /// the cache would exceed 64 MiB.
   Eigen::ArrayXXd stage_rate, stage_w34;
@@ -77,7 +77,7 @@ class Workspace {
   std::vector<char> sample_filled;
   StripLoads loads;
   Eigen::VectorXd state;  ///< lag states (sized by attach_aero)
-  std::unique_ptr<StepperSlot> stepper;  ///< RK4 with its buffers (case/stepper.hpp)
+  std::unique_ptr<StepperSlot> stepper;  ///< the steppers with their buffers (case/stepper.hpp)
   /// The aero model's buffers (null for a model that needs none). attach_aero builds them once
   /// per build or reset, handing the previous ones to make_scratch so large caches are reused.
   std::unique_ptr<AeroScratch> aero_scratch;

@@ -1,8 +1,9 @@
 #pragma once
 /// \file
-/// The run on an explicit Workspace (internal: the installed API is simulation/run.hpp): fixed-
-/// step RK4 (Boost.Odeint runge_kutta4) over whole cycles until the cycle means stop changing
-/// (DESIGN §5); loads are evaluated at output samples only.
+/// The run on an explicit Workspace (internal: the installed API is simulation/run.hpp): fixed
+/// steps (simulation.integrator: exponential ETDRK4 or Boost.Odeint's runge_kutta4) over whole
+/// cycles until the cycle means stop changing (DESIGN §5); loads are evaluated at output samples
+/// only.
 
 #include <functional>
 
@@ -15,8 +16,8 @@
 
 namespace flapline {
 
-/// One RK4 step (Boost.Odeint runge_kutta4) of ws.state from t to t + dt. Allocation-free once
-/// the stepper has seen the state's size; throws NumericalError on a non-finite state.
+/// One step of ws.state from t to t + dt with the model's integrator. Allocation-free once the
+/// stepper has seen the state's size; throws NumericalError on a non-finite state.
 void advance(const Model& model, Workspace& ws, double t, double dt);
 
 /// Kinematics and per-strip loads at t for the current ws.state, summed into body axes

@@ -1,7 +1,7 @@
 #pragma once
 /// \file
 /// Running a case — the public entry points (installed API). A run integrates the lag states
-/// with fixed-step RK4 over whole cycles until the cycle means stop changing (DESIGN §5) and
+/// with fixed steps over whole cycles until the cycle means stop changing (DESIGN §5) and
 /// ends in a RunSummary. The per-run buffers (the Workspace) stay internal: `simulate` makes
 /// its own, and a `CaseRunner` keeps one for many cases (one runner per thread).
 
