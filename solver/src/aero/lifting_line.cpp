@@ -9,13 +9,10 @@
 #include <cassert>
 #include <vector>
 
-#ifdef __linux__
-#include <sys/mman.h>
-#endif
-
 #include "flapline/aero/lag_states.hpp"
 #include "flapline/aero/section_loads.hpp"
 #include "flapline/aero/vortex_filament.hpp"
+#include "flapline/common/huge_block.hpp"
 #include "flapline/common/math.hpp"
 #include "flapline/case/model.hpp"
 #include "flapline/case/stage_kinematics.hpp"
@@ -59,34 +56,6 @@ class CacheLease {
   long long held_ = 0;
 };
 
-/// Memory of the per-phase factors: one block, on transparent huge pages where the system offers
-/// them, so that filling it during the first cycle costs one page fault per 2 MiB rather than
-/// per 4 kB (most of the first cycle's cost at 200 strips per wing otherwise).
-class FactorStore {
- public:
-  /// A block of at least `doubles` values (the previous block is kept when it is large enough;
-  /// its contents are not cleared).
-  double* reserve(std::size_t doubles) {
-    if (doubles <= capacity_) return data_.get();
-    constexpr std::size_t huge = std::size_t{2} << 20;
-    const std::size_t bytes = (doubles * sizeof(double) + huge - 1) / huge * huge;
-    data_.reset(static_cast<double*>(std::aligned_alloc(huge, bytes)));
-    if (!data_) throw std::bad_alloc();
-#ifdef MADV_HUGEPAGE
-    madvise(data_.get(), bytes, MADV_HUGEPAGE);  // advice only: failure leaves 4 kB pages
-#endif
-    capacity_ = bytes / sizeof(double);
-    return data_.get();
-  }
-
- private:
-  struct Free {
-    void operator()(double* p) const { std::free(p); }
-  };
-  std::unique_ptr<double, Free> data_;
-  std::size_t capacity_ = 0;
-};
-
 /// Per-run buffers of the lifting line.
 struct LiftingLineScratch final : AeroScratch {
   HorseshoeGeometry geometry;
@@ -104,7 +73,7 @@ struct LiftingLineScratch final : AeroScratch {
   /// columns, the − half in the right ones) or of I − D₀K (rows × 2N doubles from `factors`), and
   /// their row permutations (2N indices from `pivots`). Filled during the first cycle; phases past
   /// the budget are factorised afresh at each stage.
-  FactorStore store;
+  HugeBlock store;
   double* factors = nullptr;
   std::vector<int> pivots;
   Eigen::Index factor_rows = 0;

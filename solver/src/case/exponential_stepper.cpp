@@ -96,8 +96,8 @@ void ExponentialStepper::resize(Eigen::Index strips, Eigen::Index phases) {
   own_.setZero(strips, 12);
   for (Eigen::ArrayXd* a : {&z_, &half_, &t1_, &t2_, &t3_, &t4_}) a->setZero(strips);
   small_.setConstant(strips, false);
-  cache_.resize(static_cast<std::size_t>(phases));
-  for (Eigen::ArrayXXd& c : cache_) c.resize(strips, 12);
+  phases_ = phases;
+  cache_.reserve(static_cast<std::size_t>(phases * strips * 12));
   filled_.assign(static_cast<std::size_t>(phases), 0);
 }
 
@@ -140,11 +140,12 @@ void ExponentialStepper::set_linear_part(const WagnerCoefficients& w,
 void ExponentialStepper::weights(double h, Eigen::Index phase) {
   const bool cached = phase >= 0 && phase < static_cast<Eigen::Index>(filled_.size());
   if (cached && filled_[static_cast<std::size_t>(phase)]) {
-    w_ = &cache_[static_cast<std::size_t>(phase)];
+    w_ = cache_.reserve(0) + phase * n_ * 12;
     return;
   }
-  Eigen::ArrayXXd& c = cached ? cache_[static_cast<std::size_t>(phase)] : own_;
-  w_ = &c;
+  double* block = cached ? cache_.reserve(0) + phase * n_ * 12 : own_.data();
+  w_ = block;
+  Eigen::Map<Eigen::ArrayXXd> c(block, n_, 12);
   // etd_weights for whole arrays at once (vectorised): the Taylor series below |z| = 0.5 (15
   // terms: remainder < 1e-18), the closed forms above (cancellation below 300 ulp at |z| = 0.5).
   const Series& sr = series();

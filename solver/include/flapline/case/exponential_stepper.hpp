@@ -22,6 +22,7 @@
 #include <vector>
 
 #include "flapline/case/aero_options.hpp"
+#include "flapline/common/huge_block.hpp"
 
 namespace flapline {
 
@@ -62,7 +63,7 @@ class ExponentialStepper {
   /// the largest over the strips. Explicit RK-type stages stay stable below about 2.5.
   /// The weights of the last step, per strip: e^{z/2}, e^{z}, hq, hf₁, hf₂, hf₃ of mode 1, then
   /// of mode 2 (etd_weights, computed for all strips at once).
-  const Eigen::ArrayXXd& last_weights() const { return *w_; }
+  Eigen::Map<const Eigen::ArrayXXd> last_weights() const { return {w_, n_, 12}; }
 
   double explicit_gain(const Eigen::Ref<const Eigen::ArrayXd>& rate0,
                        const Eigen::Ref<const Eigen::ArrayXd>& rate_half,
@@ -86,8 +87,9 @@ class ExponentialStepper {
   Eigen::ArrayXXd own_;
   Eigen::ArrayXd z_, half_, t1_, t2_, t3_, t4_;  // weights() work arrays
   Eigen::Array<bool, Eigen::Dynamic, 1> small_;
-  const Eigen::ArrayXXd* w_ = nullptr;
-  std::vector<Eigen::ArrayXXd> cache_;
+  const double* w_ = nullptr;
+  HugeBlock cache_;  // phases × (strips × 12) weights
+  Eigen::Index phases_ = 0;
   std::vector<char> filled_;
   Eigen::ArrayXd y1_, y2_, a1_, a2_, b1_, b2_, c1_, c2_, nu1_, nu2_, na1_, na2_, nb1_, nb2_, nc1_,
       nc2_;
@@ -101,7 +103,7 @@ void ExponentialStepper::step(Derivative&& derivative, Eigen::VectorXd& x, doubl
                               const Eigen::Ref<const Eigen::ArrayXd>& rate1, Eigen::Index phase) {
   mean_rate_ = (rate0 + 4.0 * rate_half + rate1) / 6.0;  // Δs/h, Simpson's rule
   weights(h, phase);
-  const Eigen::ArrayXXd& c = *w_;
+  const Eigen::Map<const Eigen::ArrayXXd> c(w_, n_, 12);
   const auto E2 = [&](int m) { return c.col(6 * m + 0); };
   const auto E = [&](int m) { return c.col(6 * m + 1); };
   const auto Q = [&](int m) { return c.col(6 * m + 2); };
