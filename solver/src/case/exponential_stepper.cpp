@@ -2,6 +2,7 @@
 
 #include <array>
 #include <cassert>
+#include <algorithm>
 #include <cmath>
 
 namespace flapline {
@@ -94,8 +95,8 @@ void ExponentialStepper::resize(Eigen::Index strips, Eigen::Index phases) {
   stage_.setZero(2 * strips);
   f_.setZero(2 * strips);
   own_.setZero(strips, 12);
-  for (Eigen::ArrayXd* a : {&z_, &half_, &t1_, &t2_, &t3_, &t4_}) a->setZero(strips);
-  small_.setConstant(strips, false);
+  z_.setZero(strips);
+  t1_.setZero(strips);
   phases_ = phases;
   cache_.reserve(static_cast<std::size_t>(phases * strips * 12));
   filled_.assign(static_cast<std::size_t>(phases), 0);
@@ -146,39 +147,43 @@ void ExponentialStepper::weights(double h, Eigen::Index phase) {
   double* block = cached ? cache_.reserve(0) + phase * n_ * 12 : own_.data();
   w_ = block;
   Eigen::Map<Eigen::ArrayXXd> c(block, n_, 12);
-  // etd_weights for whole arrays at once (vectorised): the Taylor series below |z| = 0.5 (15
-  // terms: remainder < 1e-18), the closed forms above (cancellation below 300 ulp at |z| = 0.5).
+  // etd_weights for all strips at once: the Taylor series below |z| = 0.5 (at most 15 terms,
+  // fewer when every |z| is small; remainder < 1e-17), the closed forms above (cancellation below
+  // 300 ulp at |z| = 0.5).
   const Series& sr = series();
-  constexpr int terms = 15;
   for (int m = 0; m < 2; ++m) {
     z_ = h * mean_rate_ * (m == 0 ? mu1_ : mu2_);
-    small_ = z_.abs() < 0.5;
+    const double largest = z_.abs().maxCoeff();
     auto e_half = c.col(6 * m + 0), e_full = c.col(6 * m + 1), q = c.col(6 * m + 2),
          f1 = c.col(6 * m + 3), f2 = c.col(6 * m + 4), f3 = c.col(6 * m + 5);
     e_half = (0.5 * z_).exp();
     e_full = e_half * e_half;
-    // Closed forms (Cox & Matthews 2002, eq. 26, over h), then the series where |z| is small.
-    t1_ = z_ * z_ * z_;
-    f1 = (-4.0 - z_ + e_full * (4.0 - 3.0 * z_ + z_ * z_)) / t1_;
-    f2 = (2.0 + z_ + e_full * (z_ - 2.0)) / t1_;
-    f3 = (-4.0 - 3.0 * z_ - z_ * z_ + e_full * (4.0 - z_)) / t1_;
-    q = (e_half - 1.0) / z_;
-    t1_.setConstant(sr.f1[terms - 1]);
-    t2_.setConstant(sr.f2[terms - 1]);
-    t3_.setConstant(sr.f3[terms - 1]);
-    t4_.setConstant(sr.phi1[terms - 1]);
-    half_ = 0.5 * z_;
-    for (int k = terms - 2; k >= 0; --k) {
-      const std::size_t u = static_cast<std::size_t>(k);
-      t1_ = t1_ * z_ + sr.f1[u];
-      t2_ = t2_ * z_ + sr.f2[u];
-      t3_ = t3_ * z_ + sr.f3[u];
-      t4_ = t4_ * half_ + sr.phi1[u];
+    const bool all_small = largest < 0.5;
+    if (!all_small) {  // closed forms (Cox & Matthews 2002, eq. 26, over h)
+      t1_ = z_ * z_ * z_;
+      f1 = (-4.0 - z_ + e_full * (4.0 - 3.0 * z_ + z_ * z_)) / t1_;
+      f2 = (2.0 + z_ + e_full * (z_ - 2.0)) / t1_;
+      f3 = (-4.0 - 3.0 * z_ - z_ * z_ + e_full * (4.0 - z_)) / t1_;
+      q = (e_half - 1.0) / z_;
     }
-    f1 = small_.select(t1_, f1) * h;
-    f2 = small_.select(t2_, f2) * h;
-    f3 = small_.select(t3_, f3) * h;
-    q = small_.select(0.5 * t4_, q) * h;
+    const int terms = all_small ? std::min(terms_for(largest), 15) : 15;
+    for (Eigen::Index i = 0; i < n_; ++i) {  // the four series in one pass (Horner)
+      const double z = z_(i), x = 0.5 * z;
+      if (!all_small && std::abs(z) >= 0.5) continue;
+      double a1 = sr.f1[static_cast<std::size_t>(terms - 1)];
+      double a2 = sr.f2[static_cast<std::size_t>(terms - 1)];
+      double a3 = sr.f3[static_cast<std::size_t>(terms - 1)];
+      double a4 = sr.phi1[static_cast<std::size_t>(terms - 1)];
+      for (int k = terms - 2; k >= 0; --k) {
+        const std::size_t u = static_cast<std::size_t>(k);
+        a1 = a1 * z + sr.f1[u];
+        a2 = a2 * z + sr.f2[u];
+        a3 = a3 * z + sr.f3[u];
+        a4 = a4 * x + sr.phi1[u];
+      }
+      f1(i) = a1, f2(i) = a2, f3(i) = a3, q(i) = 0.5 * a4;
+    }
+    f1 *= h, f2 *= h, f3 *= h, q *= h;
   }
   if (cached) filled_[static_cast<std::size_t>(phase)] = 1;
 }

@@ -85,8 +85,7 @@ class ExponentialStepper {
   // Weights per mode: e^{z/2}, e^{z}, hq, hf₁, hf₂, hf₃ (columns 0..5 mode 1, 6..11 mode 2), of
   // the current step: w_ points at a phase's cached block or at own_.
   Eigen::ArrayXXd own_;
-  Eigen::ArrayXd z_, half_, t1_, t2_, t3_, t4_;  // weights() work arrays
-  Eigen::Array<bool, Eigen::Dynamic, 1> small_;
+  Eigen::ArrayXd z_, t1_;  // weights() work arrays
   const double* w_ = nullptr;
   HugeBlock cache_;  // phases × (strips × 12) weights
   Eigen::Index phases_ = 0;
