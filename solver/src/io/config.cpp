@@ -684,6 +684,32 @@ void apply_override(YAML::Node& root, const std::string& path, const std::string
   }
 }
 
+/// Refuses a key given twice in one map — a single key or a whole section (YAML parsers keep the
+/// first silently) — naming both lines.
+void check_duplicate_keys(const YAML::Node& node, const std::string& path, const std::string& file) {
+  if (node.IsSequence()) {
+    std::size_t i = 0;
+    for (const YAML::Node& v : node) check_duplicate_keys(v, path + "." + std::to_string(i++), file);
+    return;
+  }
+  if (!node.IsMap()) return;
+  std::map<std::string, int> seen;
+  for (const auto& kv : node) {
+    if (!kv.first.IsScalar()) continue;
+    const std::string key = path.empty() ? kv.first.Scalar() : path + "." + kv.first.Scalar();
+    const int line = kv.first.Mark().line + 1;
+    const auto [first, fresh] = seen.emplace(kv.first.Scalar(), line);
+    if (!fresh) {
+      InputError e(key, "", "is given twice, on lines " + std::to_string(first->second) + " and " +
+                                std::to_string(line) + " (only one may stay)",
+                   "merge the two, or delete the one you do not mean");
+      e.locate(file, line);
+      throw e;
+    }
+    check_duplicate_keys(kv.second, key, file);
+  }
+}
+
 Source parse(const std::string& text, const std::string& name, const std::string& base_dir,
              const std::vector<std::string>& overrides) {
   Source src;
@@ -696,6 +722,7 @@ Source parse(const std::string& text, const std::string& name, const std::string
     e.locate(name, ex.mark.line + 1);
     throw e;
   }
+  check_duplicate_keys(src.root, "", name);
   for (const auto& o : overrides) {
     const auto eq = o.find('=');
     if (eq == std::string::npos || eq == 0) {
