@@ -106,6 +106,13 @@ Model::Model(ModelSpec spec)
   for (const WingMotion& m : motion_)
     for (const Waveform* w : {&m.stroke, &m.deviation, &m.pitch, &m.span_ratio, &m.plunge})
       if (w->spec().shape == WaveShape::step) periodic_ = false;
+  if (!periodic_ && spec_.simulation.start == StartMode::periodic &&
+      spec_.aero.kind != ModelKind::quasi_steady)
+    throw InputError("simulation.start", "periodic",
+                     "needs kinematics that repeat every cycle, and a `step` waveform never "
+                     "repeats",
+                     "use start: rest or quasi_steady with a step waveform")
+        .between_keys();
 }
 
 }  // namespace flapline
