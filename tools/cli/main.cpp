@@ -227,6 +227,13 @@ int compare_command(const CompareArgs& a) {
   return 0;
 }
 
+/// `--plot` (the default) and `--no-plot`, shown as two plain flags in --help.
+void add_plot_flags(CLI::App* cmd, bool& plot, const std::string& what) {
+  cmd->add_flag("--plot", plot, what + " with gnuplot (the default when gnuplot is installed)");
+  cmd->add_flag_function(
+      "--no-plot", [&plot](std::int64_t) { plot = false; }, "No figures");
+}
+
 // --- validate -----------------------------------------------------------------------------------
 struct ValidateArgs {
   std::string out, only, cases_dir, integrator;
@@ -284,7 +291,8 @@ int validate_command(const ValidateArgs& a) {
 }  // namespace
 
 int main(int argc, char** argv) {
-  CLI::App app{"flapline: unsteady blade-element aerodynamics of flapping and morphing wings"};
+  CLI::App app{"flapline: unsteady blade-element aerodynamics of flapping and morphing wings",
+               "flapline"};
   app.set_version_flag("--version", std::string("flapline ") + kVersion);
   app.require_subcommand(1);
 
@@ -297,8 +305,7 @@ int main(int argc, char** argv) {
       ->take_all();
   cmd_run->add_flag("-q,--quiet", run.quiet, "Print nothing on success (and no progress)");
   cmd_run->add_flag("--full", run.full, "Print the full report instead of the short one");
-  cmd_run->add_flag("--plot,!--no-plot", run.plot,
-                    "Render figures with gnuplot (default: on when gnuplot is installed)");
+  add_plot_flags(cmd_run, run.plot, "Render figures");
   cmd_run->add_option("--state-space", run.state_space_time,
                       "Also write state_space.json: the frozen-time A, B, C, D of the lag states "
                       "at time T (s)")
@@ -335,7 +342,7 @@ int main(int argc, char** argv) {
       ->check(CLI::Range(20, 100000));
   cmd_cmp->add_option("--set", cmp.sets, "Override a key in every config")->take_all();
   cmd_cmp->add_flag("-q,--quiet", cmp.quiet, "Print nothing on success");
-  cmd_cmp->add_flag("--plot,!--no-plot", cmp.plot, "Overlay figures with gnuplot (default: on)");
+  add_plot_flags(cmd_cmp, cmp.plot, "Overlay figures");
 
   SweepArgs sw;
   CLI::App* cmd_sweep = app.add_subcommand(
@@ -358,7 +365,7 @@ int main(int argc, char** argv) {
   cmd_sweep->add_option("--set", sw.sets, "Override a key of the base case")->take_all();
   cmd_sweep->add_flag("--keep-cases", sw.keep_cases, "Also write every case's run folder (cases/)");
   cmd_sweep->add_flag("-q,--quiet", sw.quiet, "Print nothing on success (and no progress)");
-  cmd_sweep->add_flag("--plot,!--no-plot", sw.plot, "Sweep figures with gnuplot (default: on)");
+  add_plot_flags(cmd_sweep, sw.plot, "Sweep figures");
 
   MergeArgs mg;
   CLI::App* cmd_merge = app.add_subcommand(
@@ -366,7 +373,7 @@ int main(int argc, char** argv) {
   cmd_merge->add_option("shards", mg.shards, "The shard folders (all N of them)")->required()->expected(1, -1);
   cmd_merge->add_option("-o,--out", mg.out, "Output folder (default: results/merged_sweep)");
   cmd_merge->add_flag("-q,--quiet", mg.quiet, "Print nothing on success");
-  cmd_merge->add_flag("--plot,!--no-plot", mg.plot, "Sweep figures with gnuplot (default: on)");
+  add_plot_flags(cmd_merge, mg.plot, "Sweep figures");
 
   TrimArgs tr;
   CLI::App* cmd_trim = app.add_subcommand(
@@ -383,7 +390,7 @@ int main(int argc, char** argv) {
   cmd_trim->add_option("-o,--out", tr.out, "Output folder (default: results/<config name>_trim)");
   cmd_trim->add_option("--set", tr.sets, "Override a config key")->take_all();
   cmd_trim->add_flag("-q,--quiet", tr.quiet, "Print nothing on success");
-  cmd_trim->add_flag("--plot,!--no-plot", tr.plot, "Figures with gnuplot (default: on)");
+  add_plot_flags(cmd_trim, tr.plot, "Figures");
 
   DerivativesArgs dv, md;
   CLI::App* cmd_der = app.add_subcommand(
@@ -399,7 +406,7 @@ int main(int argc, char** argv) {
     cmd->add_option("-o,--out", args->out, "Output folder");
     cmd->add_option("--set", args->sets, "Override a config key")->take_all();
     cmd->add_flag("-q,--quiet", args->quiet, "Print nothing on success");
-    cmd->add_flag("--plot,!--no-plot", args->plot, "Figures with gnuplot (default: on)");
+    add_plot_flags(cmd, args->plot, "Figures");
   }
   cmd_der->add_flag("--flight", dv.flight,
                     "Also the stability derivatives: body velocity u, v, w and rates p, q, r");
@@ -415,7 +422,7 @@ int main(int argc, char** argv) {
                       "case's own, i.e. the default exponential)")
       ->check(CLI::IsMember({"exponential", "rk4"}));
   cmd_val->add_flag("-q,--quiet", val.quiet, "Print nothing");
-  cmd_val->add_flag("--plot,!--no-plot", val.plot, "One figure per case with gnuplot (default: on)");
+  add_plot_flags(cmd_val, val.plot, "One figure per case");
 
   try {
     app.parse(argc, argv);
