@@ -193,7 +193,9 @@ class Reader {
 
   int integer(const YAML::Node& n, const std::string& path) const {
     const double v = number(n, path);
-    if (v != std::floor(v) || std::abs(v) > 1e9) fail(path, &n, describe(n), "must be a whole number");
+    if (v != std::floor(v)) fail(path, &n, describe(n), "must be a whole number");
+    if (std::abs(v) > 1e9)
+      fail(path, &n, describe(n), "must be a whole number between -1000000000 and 1000000000");
     return static_cast<int>(v);
   }
 
