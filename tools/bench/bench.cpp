@@ -5,6 +5,7 @@
 #include <Eigen/LU>
 
 #include <memory>
+#include <optional>
 
 #include "flapline/aero/lifting_line.hpp"
 #include "flapline/io/config.hpp"
@@ -28,9 +29,14 @@ ModelSpec bench_spec(ModelSpec s, int cycles) {
 
 // Each iteration is a complete 8-cycle run from a fresh Workspace, so the per-phase caches are
 // filled in the first cycle and reused in the other seven: the cost a user sees per wing-beat.
-void run_cycles(benchmark::State& state, const ModelSpec& spec) {
+// `strips`/`spacing`: as bench_spec sets them (20 per wing, the spec's spacing) unless given.
+void run_cycles(benchmark::State& state, const ModelSpec& spec, int strips = 20,
+                std::optional<StripSpacing> spacing = std::nullopt) {
   const int cycles = 8;
-  const Model model(bench_spec(spec, cycles));
+  ModelSpec s = bench_spec(spec, cycles);
+  s.strips.count = strips;
+  if (spacing) s.strips.spacing = *spacing;
+  const Model model(s);
   for (auto _ : state) {
     Workspace ws(model);
     RunSummary r = simulate(model, ws);
@@ -66,20 +72,8 @@ void lifting_line_forward(benchmark::State& state) {
 // 400 steps). `uniform`: strips of equal width (comparable with every earlier version); `cosine`:
 // strips clustered at the tip.
 void hover_strips(benchmark::State& state, ModelKind kind, StripSpacing spacing) {
-  ModelSpec s = with_model(samples::hover_insect(), kind);
-  const int cycles = 8;
-  s = bench_spec(s, cycles);
-  s.strips.count = static_cast<int>(state.range(0));
-  s.strips.spacing = spacing;
-  const Model model(s);
-  for (auto _ : state) {
-    Workspace ws(model);
-    RunSummary r = simulate(model, ws);
-    benchmark::DoNotOptimize(r.averages.mean.force);
-  }
-  state.counters["ms_per_wingbeat"] = benchmark::Counter(
-      static_cast<double>(cycles) * 1e-3,
-      benchmark::Counter::kIsIterationInvariantRate | benchmark::Counter::kInvert);
+  run_cycles(state, with_model(samples::hover_insect(), kind), static_cast<int>(state.range(0)),
+             spacing);
 }
 void hover_uniform_quasi_steady(benchmark::State& state) {
   hover_strips(state, ModelKind::quasi_steady, StripSpacing::uniform);

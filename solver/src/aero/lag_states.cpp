@@ -15,30 +15,32 @@ void periodic_lag_state(const Model& model, Workspace& ws, const LagForcing& for
   const int steps = model.simulation().steps_per_cycle;
   const double dt = model.period() / steps;
   Eigen::ArrayXd f(n2);
-  // z = [forced x (2·2N); homogeneous y (2·2N)]
-  Eigen::VectorXd z = Eigen::VectorXd::Zero(4 * n2);
-  z.tail(2 * n2).setOnes();
-  auto system = [&](const Eigen::VectorXd& v, Eigen::VectorXd& dv, double t) {
-    forcing(t, f);
-    update_speeds(model, ws, t);
-    const Eigen::ArrayXd& rate = ws.rate;
-    dv.resize(v.size());
-    dv.segment(0, n2).array() = rate * w.b1 * (w.a1 * f - v.segment(0, n2).array());
-    dv.segment(n2, n2).array() = rate * w.b2 * (w.a2 * f - v.segment(n2, n2).array());
-    dv.segment(2 * n2, n2).array() = -rate * w.b1 * v.segment(2 * n2, n2).array();
-    dv.segment(3 * n2, n2).array() = -rate * w.b2 * v.segment(3 * n2, n2).array();
+  const Eigen::ArrayXd none = Eigen::ArrayXd::Zero(n2);
+  // dx/dt of the forced states (from zero) or of the homogeneous ones (from one, forcing 0).
+  auto lag = [&](bool forced) {
+    return [&, forced](const Eigen::VectorXd& v, Eigen::VectorXd& dv, double t) {
+      if (forced) forcing(t, f);
+      update_speeds(model, ws, t);
+      dv.resize(v.size());
+      lag_derivative(w, ws.rate, forced ? f : none, v, dv);
+    };
   };
+  Eigen::VectorXd forced = Eigen::VectorXd::Zero(2 * n2), free = Eigen::VectorXd::Ones(2 * n2);
   if (model.simulation().integrator == Integrator::rk4) {
-    StateStepper stepper;
-    for (int j = 0; j < steps; ++j) stepper.do_step(system, z, j * dt, dt);
+    StateStepper a, b;
+    for (int j = 0; j < steps; ++j) {
+      a.do_step(lag(true), forced, j * dt, dt);
+      b.do_step(lag(false), free, j * dt, dt);
+    }
   } else {
-    // The run's exponential steps with κ = 0 (each state its own linear equation): the same map
-    // for the forced states from zero and the homogeneous ones from one.
-    ExponentialStepper stepper;
-    stepper.resize(n2, 0);
-    stepper.set_linear_part(w, Eigen::ArrayXd::Zero(n2));
+    // The run's exponential steps with κ = 0 (each state its own linear equation).
+    ExponentialStepper st;
+    st.resize(n2, 0);
+    st.set_linear_part(w, none);
     Eigen::ArrayXd r0(n2), rh(n2), r1(n2);
-    Eigen::VectorXd forced = z.head(2 * n2), free = z.tail(2 * n2), dv(4 * n2);
+    auto exp_form = [](auto&& d) {  // (x, t, dx/dt) as the exponential stepper calls it
+      return [d](const Eigen::VectorXd& v, double t, Eigen::VectorXd& dv) { d(v, dv, t); };
+    };
     for (int j = 0; j < steps; ++j) {
       const double t = j * dt;
       update_speeds(model, ws, t);
@@ -47,22 +49,12 @@ void periodic_lag_state(const Model& model, Workspace& ws, const LagForcing& for
       rh = ws.rate;
       update_speeds(model, ws, t + dt);
       r1 = ws.rate;
-      auto part = [&](bool homogeneous) {
-        return [&, homogeneous](const Eigen::VectorXd& v, double time, Eigen::VectorXd& d) {
-          Eigen::VectorXd full = Eigen::VectorXd::Zero(4 * n2);
-          full.segment(homogeneous ? 2 * n2 : 0, 2 * n2) = v;
-          system(full, dv, time);
-          d = dv.segment(homogeneous ? 2 * n2 : 0, 2 * n2);
-        };
-      };
-      stepper.step(part(false), forced, t, dt, r0, rh, r1, -1);
-      stepper.step(part(true), free, t, dt, r0, rh, r1, -1);
+      st.step(exp_form(lag(true)), forced, t, dt, r0, rh, r1, -1);
+      st.step(exp_form(lag(false)), free, t, dt, r0, rh, r1, -1);
     }
-    z.head(2 * n2) = forced;
-    z.tail(2 * n2) = free;
   }
   x.resize(2 * n2);
-  x.array() = z.head(2 * n2).array() / (1.0 - z.tail(2 * n2).array());
+  x.array() = forced.array() / (1.0 - free.array());
 }
 
 }  // namespace flapline

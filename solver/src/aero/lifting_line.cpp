@@ -3,9 +3,6 @@
 #include <algorithm>
 #include <array>
 #include <atomic>
-#include <cstdlib>
-#include <memory>
-#include <new>
 #include <cassert>
 #include <vector>
 
@@ -237,8 +234,9 @@ void solve_stage(const Model& model, Workspace& ws, double t, const Eigen::Vecto
   } else {
     if (!poses_current) update_speeds(model, ws, t);  // poses at t (stage arrays are not read)
     factorise(model, ws, s);
+    const auto& minus = s.mirror ? s.lu2 : s.lu;  // the − half (mirror only)
     solve_factors(model, s, s.lu.matrixLU(), s.lu.permutationP().indices().data(),
-                  s.lu2.matrixLU(), s.lu2.permutationP().indices().data());
+                  minus.matrixLU(), minus.permutationP().indices().data());
     if (slot >= 0) {
       double* f = s.factors + slot * rows * 2 * n;
       int* p = s.pivots.data() + slot * 2 * rows;
@@ -381,7 +379,6 @@ std::unique_ptr<AeroScratch> LiftingLineModel::make_scratch(
   s->S2.setZero(m, m);
   s->lu = Eigen::PartialPivLU<Eigen::MatrixXd>(m);
   s->lu2 = Eigen::PartialPivLU<Eigen::MatrixXd>(m);
-  s->lu2.compute(s->identity.topLeftCorner(m, m));  // valid (unused) factors for the full path
   s->y_sum.setZero(m);
   s->y_difference.setZero(m);
   s->y_work.setZero(m);

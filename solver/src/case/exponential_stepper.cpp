@@ -97,12 +97,9 @@ void ExponentialStepper::resize(Eigen::Index strips, Eigen::Index phases) {
   own_.setZero(strips, 12);
   z_.setZero(strips);
   t1_.setZero(strips);
-  phases_ = phases;
   cache_.reserve(static_cast<std::size_t>(phases * strips * 12));
   filled_.assign(static_cast<std::size_t>(phases), 0);
 }
-
-void ExponentialStepper::clear_cache() { std::fill(filled_.begin(), filled_.end(), 0); }
 
 void ExponentialStepper::set_linear_part(const WagnerCoefficients& w,
                                          const Eigen::Ref<const Eigen::ArrayXd>& kappa) {
@@ -135,7 +132,6 @@ void ExponentialStepper::set_linear_part(const WagnerCoefficients& w,
     v11_(i) = p, v21_(i) = q, v12_(i) = s, v22_(i) = u;
     w11_(i) = u / det, w12_(i) = -s / det, w21_(i) = -q / det, w22_(i) = p / det;
   }
-  clear_cache();
 }
 
 void ExponentialStepper::weights(double h, Eigen::Index phase) {

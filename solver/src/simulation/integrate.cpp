@@ -58,6 +58,7 @@ void prepare_exponential(const Model& model, Workspace& ws, const AeroModel& aer
   for (Eigen::ArrayXd* a : {&st.kappa, &st.rate0, &st.rate_half, &st.rate1}) a->setZero(n2);
   aero.own_induction(model, ws, 0.0, st.kappa);
   st.exponential.set_linear_part(wagner_coefficients(model.aero_options().wagner_fit), st.kappa);
+  st.kappa_varies = aero.own_induction_varies(model);
   st.exponential_ready = true;
 }
 
@@ -176,7 +177,7 @@ void exponential_step(const Model& model, Workspace& ws, const AeroModel& aero, 
   prepare_exponential(model, ws, aero);
   StepperSlot& st = *ws.stepper;
   const NoMallocScope no_malloc;
-  if (aero.own_induction_varies(model)) {  // a folding wing: the linear part at the step start
+  if (st.kappa_varies) {  // a folding wing: the linear part at the step start
     aero.own_induction(model, ws, t, st.kappa);
     st.exponential.set_linear_part(wagner_coefficients(model.aero_options().wagner_fit), st.kappa);
   }

@@ -42,11 +42,10 @@ class ExponentialStepper {
  public:
   /// Lᵢ for every strip from κ (size 2N); states are laid out [x₁ of all strips, x₂ of all].
   void set_linear_part(const WagnerCoefficients& w, const Eigen::Ref<const Eigen::ArrayXd>& kappa);
-  /// Sizes the buffers for `strips` strips and, when `phases` > 0, a cache of the weights at
-  /// each of `phases` step phases per cycle (periodic rates, constant linear parts).
+  /// Sizes the buffers for `strips` strips and, when `phases` > 0, an empty cache of the weights
+  /// at each of `phases` step phases per cycle — valid when the rates and the linear parts set
+  /// for a step depend only on its phase (periodic kinematics).
   void resize(Eigen::Index strips, Eigen::Index phases);
-  /// Forget the cached weights (a new linear part or a new run).
-  void clear_cache();
 
   /// One step of x from t to t + h. `derivative(x, t, dxdt)` gives the full right-hand side;
   /// `rate0`, `rate_half`, `rate1` hold σ at t, t + h/2 and t + h; `phase` is the step's cache
@@ -88,7 +87,6 @@ class ExponentialStepper {
   Eigen::ArrayXd z_, t1_;  // weights() work arrays
   const double* w_ = nullptr;
   HugeBlock cache_;  // phases × (strips × 12) weights
-  Eigen::Index phases_ = 0;
   std::vector<char> filled_;
   Eigen::ArrayXd y1_, y2_, a1_, a2_, b1_, b2_, c1_, c2_, nu1_, nu2_, na1_, na2_, nb1_, nb2_, nc1_,
       nc2_;

@@ -22,6 +22,7 @@ struct StepperSlot {
   /// The exponential stepper is sized and holds the linear parts of the Workspace's Model
   /// (cleared by Workspace::reset).
   bool exponential_ready = false;
+  bool kappa_varies = false;  ///< the linear parts change over the cycle (set at each step)
   Eigen::ArrayXd kappa, rate0, rate_half, rate1;
 };
 
