@@ -105,7 +105,10 @@ py::tuple run(const std::string& text, const std::string& name, const std::strin
     const std::vector<std::vector<double>> st = io::spanwise_table(s);
     for (std::size_t k = 0; k < st.size(); ++k)
       span[py::str(io::spanwise_numeric_columns()[k])] = array(st[k]);
-    return py::make_tuple(summary, history, span);
+    py::dict drive;
+    const std::vector<std::vector<double>> dt = io::drive_table(s);
+    for (std::size_t k = 0; k < dt.size(); ++k) drive[py::str(io::drive_columns()[k])] = array(dt[k]);
+    return py::make_tuple(summary, history, span, drive);
   });
 }
 

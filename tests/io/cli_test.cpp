@@ -23,7 +23,8 @@ TEST_CASE("flapline run writes history.csv, summary.json and spanwise.csv for ev
         log);
     CHECK(code == 0);
     CHECK(log.find("Cautions:") != std::string::npos);  // the run summary carries the cautions
-    for (const char* f : {"history.csv", "summary.json", "spanwise.csv"}) CHECK(fs::exists(out / f));
+    for (const char* f : {"history.csv", "summary.json", "spanwise.csv", "drive.csv"})
+      CHECK(fs::exists(out / f));
     std::ifstream js(out / "summary.json");
     const nlohmann::json j = nlohmann::json::parse(js);
     CHECK(j["cycle_mean"]["lift_N"].get<double>() > 0.0);

@@ -103,6 +103,7 @@ void write_run(io::OutputFolder& folder, const RunSummary& s, const Model& model
   folder.add("history.csv", io::history_csv(s));
   folder.add("summary.json", io::summary_json(s));
   folder.add("spanwise.csv", io::spanwise_csv(s));
+  folder.add("drive.csv", io::drive_csv(s));
   if (plot && io::gnuplot_available())
     for (auto& [name, content] : io::run_plots(s, model)) folder.add(name, content);
   else if (plot)

@@ -70,6 +70,7 @@ int run_command(const RunArgs& a) {
   folder.add("history.csv", io::history_csv(summary));
   folder.add("summary.json", io::summary_json(summary, a.config));
   folder.add("spanwise.csv", io::spanwise_csv(summary));
+  folder.add("drive.csv", io::drive_csv(summary));
   std::string plot_note;
   if (a.plot) {
     if (io::gnuplot_available())
@@ -85,7 +86,7 @@ int run_command(const RunArgs& a) {
   folder.commit();
   if (!a.quiet) {
     std::cout << (a.full ? summary.full_report() : summary.brief_report());
-    std::cout << "results: " << dir.string() << "/ (history.csv, summary.json, spanwise.csv"
+    std::cout << "results: " << dir.string() << "/ (history.csv, summary.json, spanwise.csv, drive.csv"
               << (a.state_space_time ? ", state_space.json" : "")
               << (a.plot && plot_note.empty() ? ", figures *.png and *.svg" : "") << ")\n";
     if (!plot_note.empty()) std::cout << plot_note << "\n";

@@ -48,6 +48,7 @@ void keep_case(const fs::path& dir, std::size_t index, const RunSummary& s) {
   f.add("history.csv", io::history_csv(s));
   f.add("summary.json", io::summary_json(s));
   f.add("spanwise.csv", io::spanwise_csv(s));
+  f.add("drive.csv", io::drive_csv(s));
   f.commit();
 }
 

@@ -81,12 +81,14 @@ def _source(config, overrides):
 class RunResult:
     """One run: ``summary`` (the dict of summary.json), ``history`` (dict of arrays keyed by the
     columns of history.csv), ``spanwise`` (dict of arrays keyed by the columns of spanwise.csv;
-    ``phase`` is NaN and ``cycle_mean`` True in the cycle-mean rows)."""
+    ``phase`` is NaN and ``cycle_mean`` True in the cycle-mean rows), ``drive`` (dict of arrays
+    keyed by the columns of drive.csv: joint rates, torques and power of each wing)."""
 
-    def __init__(self, summary, history, spanwise):
+    def __init__(self, summary, history, spanwise, drive):
         self.summary = summary
         self.history = history
         self.spanwise = spanwise
+        self.drive = drive
 
     def __repr__(self):
         s = self.summary
@@ -98,8 +100,8 @@ def run(config, overrides=None):
     """Run one case; returns a RunResult. Raises InputError on bad input and ArithmeticError
     when the run blows up."""
     text, name, base, sets = _source(config, overrides)
-    summary, history, spanwise = _flapline.run(text, name, base, sets)
-    return RunResult(json.loads(summary), dict(history), dict(spanwise))
+    summary, history, spanwise, drive = _flapline.run(text, name, base, sets)
+    return RunResult(json.loads(summary), dict(history), dict(spanwise), dict(drive))
 
 
 def _number(cell):

@@ -44,6 +44,7 @@ void circulation_loads(const Model& model, Workspace& ws) {
     L.force_quarter.col(k) = x.width * (normal * x.sec.normal_axis + suction * x.sec.chord_axis);
   }
   add_noncirculatory_loads(model, ws);
+  if (model.aero_options().profile_drag.law != ProfileDragLaw::none) add_profile_drag(model, ws);
 }
 
 void revolving_fit_loads(const Model& model, Workspace& ws) {
@@ -82,6 +83,22 @@ void add_noncirculatory_loads(const Model& model, Workspace& ws) {
     const double couple = -0.5 * kPi * rho * x.sec.tangential_speed * b * b * b * x.pose.omega_s -
                           0.125 * kPi * rho * b * b * b * b * x.pose.omega_s_dot;
     L.couple.col(k) = x.width * couple * x.pose.span_axis;
+  }
+}
+
+void add_profile_drag(const Model& model, Workspace& ws) {
+  const double rho = model.air().density, nu = model.air().kinematic_viscosity;
+  const ProfileDrag& law = model.aero_options().profile_drag;
+  StripLoads& L = ws.loads;
+  for (Eigen::Index k = 0; k < model.strip_count(); ++k) {
+    const StripContext x = context(model, ws, k);
+    // The air's velocity relative to mid-chord, in the section plane: −U_t e_c + w_½ e_n.
+    const double ut = x.sec.tangential_speed, w = x.sec.w_half;
+    const double u = std::hypot(ut, w);
+    const double cd0 = law.coefficient_at(u * x.chord / nu);
+    const double q = 0.5 * rho * cd0 * x.chord * u * x.width;
+    L.profile_drag.col(k) = q * (w * x.sec.normal_axis - ut * x.sec.chord_axis);
+    L.force_mid.col(k) += L.profile_drag.col(k);
   }
 }
 

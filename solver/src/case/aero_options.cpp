@@ -1,5 +1,6 @@
 #include "flapline/case/aero_options.hpp"
 
+#include <algorithm>
 #include <cmath>
 
 #include "flapline/common/errors.hpp"
@@ -46,6 +47,19 @@ WagnerCoefficients wagner_coefficients(WagnerFit fit) {
   return {0.165, 0.335, 0.0455, 0.3};
 }
 
+double ProfileDrag::coefficient_at(double reynolds) const {
+  switch (law) {
+    case ProfileDragLaw::none:
+      return 0.0;
+    case ProfileDragLaw::constant:
+      return coefficient;
+    case ProfileDragLaw::blasius:
+      // Laminar flat plate, skin friction 1.328/√Re on each face (Blasius 1908).
+      return 2.0 * 1.328 / std::sqrt(std::max(reynolds, kMinReynolds));
+  }
+  return 0.0;
+}
+
 void validate(const AeroOptions& o) {
   if (!(o.suction_recovery >= 0.0 && o.suction_recovery <= 1.0))
     throw InputError("model.suction_recovery", format_number(o.suction_recovery),
@@ -66,6 +80,19 @@ void validate(const AeroOptions& o) {
     throw InputError("model.suction_recovery", format_number(o.suction_recovery),
                      "applies to the thin_airfoil law only; leave it at 1 with revolving_fit",
                      "the fit already holds what the experiment measured")
+        .between_keys();
+  const ProfileDrag& d = o.profile_drag;
+  if (!(d.coefficient >= 0.0 && d.coefficient <= 2.0))
+    throw InputError("model.profile_drag.coefficient", format_number(d.coefficient),
+                     "must lie in [0, 2]");
+  if (d.coefficient > 0.0 && d.law != ProfileDragLaw::constant)
+    throw InputError("model.profile_drag.coefficient", format_number(d.coefficient),
+                     "is used by the constant law only; set model.profile_drag.law: constant")
+        .between_keys();
+  if (d.law != ProfileDragLaw::none && o.law == CoefficientLaw::revolving_fit)
+    throw InputError("model.profile_drag.law", std::string(to_string(d.law)),
+                     "must be none with coefficient_law revolving_fit",
+                     "the fit's drag coefficient already contains skin friction")
         .between_keys();
 }
 

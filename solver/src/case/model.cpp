@@ -91,6 +91,8 @@ Model::Model(ModelSpec spec)
   check_span_ratio(motion_[1]);
   validate(spec_.aero);
   validate(spec_.simulation);
+  validate(spec_.wing_mass);
+  if (spec_.wing_mass.any()) mass_ = distribute_mass(spec_.wing_mass, planform_, strips_);
   const Eigen::Index n = strips_.size();
   auto twice = [n](const Eigen::ArrayXd& a) {
     Eigen::ArrayXd out(2 * n);

@@ -15,6 +15,7 @@ void StripLoads::resize(Eigen::Index n) {
   w_effective.setZero(n);
   w_suction.setZero(n);
   w_induced.setZero(n);
+  profile_drag.setZero(3, n);
 }
 
 Workspace::~Workspace() = default;

@@ -227,7 +227,9 @@ class Reader {
     check_keys(w, P,
                {"planform", "span", "chord", "root_chord", "tip_chord", "mean_chord",
                 "first_moment_radius", "second_moment_radius", "table", "table_file",
-                "pitch_axis", "hinge", "twist_root", "twist_tip", "strips", "strip_spacing"});
+                "pitch_axis", "hinge", "twist_root", "twist_tip", "strips", "strip_spacing",
+                "mass"});
+    if (has(w, "mass")) read_mass(map_at(w, P, "mass"), spec.wing_mass);
     PlanformSpec& p = spec.wing;
     if (!has(w, "planform"))
       fail(P + ".planform", &w, "(missing)",
@@ -286,6 +288,38 @@ class Reader {
     if (has(w, "strips")) spec.strips.count = integer(w["strips"], P + ".strips");
     if (has(w, "strip_spacing"))
       spec.strips.spacing = choice<StripSpacing>(w["strip_spacing"], P + ".strip_spacing");
+  }
+
+  void read_mass(const YAML::Node& m, WingMassSpec& out) const {
+    const std::string P = "wing.mass";
+    check_keys(m, P, {"total", "per_span", "points"});
+    if (has(m, "total")) out.total = number(m["total"], P + ".total");
+    auto rows = [&](const char* key, const char* layout) {
+      const YAML::Node t = m[key];
+      const std::string path = P + "." + key;
+      if (!t.IsSequence() || t.size() == 0)
+        fail(path, &t, describe(t), std::string("must be a list of ") + layout + " rows");
+      for (const auto& row : t)
+        if (!row.IsSequence() || row.size() != 3)
+          fail(path, &row, describe(row),
+               std::string("each row must be ") + layout +
+                   (row.IsSequence() ? " (3 numbers; this row has " + std::to_string(row.size()) + ")"
+                                     : ""));
+      return t;
+    };
+    if (has(m, "per_span")) {
+      const std::string path = P + ".per_span";
+      for (const auto& row : rows("per_span", "[span_fraction, kg_per_m, centre_chord_fraction]")) {
+        out.table_span_fraction.push_back(number(row[0], path));
+        out.table_mass_per_span.push_back(number(row[1], path));
+        out.table_centre_fraction.push_back(number(row[2], path));
+      }
+    }
+    if (has(m, "points")) {
+      const std::string path = P + ".points";
+      for (const auto& row : rows("points", "[span_fraction, chord_fraction, kg]"))
+        out.points.push_back({number(row[0], path), number(row[1], path), number(row[2], path)});
+    }
   }
 
   void read_inline_table(const YAML::Node& t, const std::string& path, PlanformSpec& p) const {
@@ -545,7 +579,16 @@ class Reader {
 
   void read_model(const YAML::Node& m, AeroOptions& o) const {
     check_keys(m, "model", {"kind", "coefficient_law", "suction_recovery", "vortex_lift", "fit",
-                            "wagner_fit", "reverse_flow", "span_coupling", "line_solve"});
+                            "wagner_fit", "reverse_flow", "span_coupling", "line_solve",
+                            "profile_drag"});
+    if (has(m, "profile_drag")) {
+      const YAML::Node d = map_at(m, "model", "profile_drag");
+      check_keys(d, "model.profile_drag", {"law", "coefficient"});
+      if (has(d, "law"))
+        o.profile_drag.law = choice<ProfileDragLaw>(d["law"], "model.profile_drag.law");
+      if (has(d, "coefficient"))
+        o.profile_drag.coefficient = number(d["coefficient"], "model.profile_drag.coefficient");
+    }
     if (has(m, "line_solve"))
       o.line_solve = choice<LineSolve>(m["line_solve"], "model.line_solve");
     if (has(m, "span_coupling"))

@@ -39,7 +39,10 @@ const std::vector<std::string>& history_columns() {
       "right_M_pitch_Nm", "right_N_yaw_Nm", "left_X_N", "left_Y_N", "left_Z_N", "left_L_roll_Nm",
       "left_M_pitch_Nm", "left_N_yaw_Nm", "power_air_W", "power_actuator_W", "right_stroke_deg",
       "right_deviation_deg", "right_pitch_deg", "right_span_ratio", "left_stroke_deg",
-      "left_deviation_deg", "left_pitch_deg", "left_span_ratio"};
+      "left_deviation_deg", "left_pitch_deg", "left_span_ratio", "inertial_X_N",
+      "inertial_Y_N", "inertial_Z_N", "inertial_L_roll_Nm", "inertial_M_pitch_Nm",
+      "inertial_N_yaw_Nm", "total_X_N", "total_Y_N", "total_Z_N", "total_L_roll_Nm",
+      "total_M_pitch_Nm", "total_N_yaw_Nm", "power_mechanical_W", "power_inertial_W"};
   return c;
 }
 
@@ -72,25 +75,93 @@ std::vector<std::vector<double>> history_table(const RunSummary& s) {
       put(a.pitch / kDegree);
       put(a.span_ratio);
     }
+    const Wrench& in = r.loads.inertial;
+    for (int i = 0; i < 3; ++i) put(in.force(i));
+    for (int i = 0; i < 3; ++i) put(in.moment(i));
+    for (int i = 0; i < 3; ++i) put(r.loads.total.force(i) + in.force(i));
+    for (int i = 0; i < 3; ++i) put(r.loads.total.moment(i) + in.moment(i));
+    put(r.loads.power_mechanical);
+    put(r.loads.power_inertial);
   }
   return t;
 }
 
-std::string history_csv(const RunSummary& s) {
-  const std::vector<std::string>& names = history_columns();
+const std::vector<std::string>& drive_columns() {
+  static const std::vector<std::string> c = [] {
+    std::vector<std::string> out{"time_s", "cycle", "phase"};
+    const char* joints[] = {"stroke", "deviation", "pitch", "span_ratio", "plunge"};
+    const char* rate_units[] = {"rad_s", "rad_s", "rad_s", "per_s", "m_s"};
+    const char* units[] = {"Nm", "Nm", "Nm", "J", "N"};
+    for (const char* wing : {"right", "left"}) {
+      for (int j = 0; j < kJoints; ++j) {
+        const std::string p = std::string(wing) + "_" + joints[j] + "_";
+        out.push_back(p + "rate_" + rate_units[j]);
+        for (const char* part : {"torque_", "torque_aero_", "torque_inertial_", "torque_gravity_"})
+          out.push_back(p + part + units[j]);
+        out.push_back(p + "power_W");
+      }
+      out.push_back(std::string(wing) + "_power_W");
+      out.push_back(std::string(wing) + "_inertial_power_W");
+    }
+    out.push_back("pair_power_W");
+    return out;
+  }();
+  return c;
+}
+
+std::vector<std::vector<double>> drive_table(const RunSummary& s) {
+  std::vector<std::vector<double>> t(drive_columns().size());
+  for (auto& c : t) c.reserve(s.history.size());
+  for (const HistoryRow& r : s.history) {
+    std::size_t k = 0;
+    auto put = [&](double v) { t[k++].push_back(v); };
+    const double cycles = r.loads.time * s.frequency;
+    const double cycle = std::floor(cycles + 1e-9);
+    put(r.loads.time);
+    put(cycle);
+    put(std::max(0.0, cycles - cycle));
+    for (const WingDriveSample& d : r.loads.drive) {
+      for (std::size_t j = 0; j < static_cast<std::size_t>(kJoints); ++j) {
+        put(d.rate[j]);
+        put(d.torque[j]);
+        put(d.torque_aero[j]);
+        put(d.torque_inertial[j]);
+        put(d.torque_gravity[j]);
+        put(d.joint_power[j]);
+      }
+      put(d.power);
+      put(d.power_inertial);
+    }
+    put(r.loads.power_mechanical);
+  }
+  return t;
+}
+
+namespace {
+/// A table with time, cycle and phase first, as history.csv and drive.csv print it.
+std::string timed_csv(const std::vector<std::string>& names,
+                      const std::vector<std::vector<double>>& t, std::size_t rows) {
   std::string out;
   for (std::size_t k = 0; k < names.size(); ++k) out += (k ? "," : "") + names[k];
   out += "\n";
-  const std::vector<std::vector<double>> t = history_table(s);
-  out.reserve(out.size() + s.history.size() * 420);
-  for (std::size_t r = 0; r < s.history.size(); ++r) {
+  out.reserve(out.size() + rows * 12 * names.size());
+  for (std::size_t r = 0; r < rows; ++r) {
     char buf[64];
     std::snprintf(buf, sizeof buf, "%.9g,%d,%.6f", t[0][r], static_cast<int>(t[1][r]), t[2][r]);
     out += buf;
-    for (std::size_t k = 3; k < t.size(); ++k) cell(out, t[k][r]);
+    for (std::size_t k = 3; k < t.size(); ++k) cell(out, no_negative_zero(t[k][r]));
     out += "\n";
   }
   return out;
+}
+}  // namespace
+
+std::string history_csv(const RunSummary& s) {
+  return timed_csv(history_columns(), history_table(s), s.history.size());
+}
+
+std::string drive_csv(const RunSummary& s) {
+  return timed_csv(drive_columns(), drive_table(s), s.history.size());
 }
 
 const std::vector<std::string>& spanwise_numeric_columns() {

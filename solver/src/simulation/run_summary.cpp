@@ -57,6 +57,37 @@ std::string footer(const RunSummary& s) {
   return out;
 }
 
+/// The drive section of the full report: per wing and joint, RMS and peak torque, power bounds.
+std::string drive_lines(const RunSummary& s) {
+  const CycleStats& a = s.averages;
+  std::string out = "drive (generalised forces the joints supply; power with perfect elastic storage = mean, "
+                    "with none = mean of the positive part):\n";
+  out += line(" pair: mechanical power %.5g W (perfect storage), %.5g W (no storage), peak %.5g W; "
+              "inertial power mean %.3g W",
+              a.power_mechanical_storage_perfect, a.power_mechanical_storage_none,
+              a.power_mechanical_peak, a.power_inertial_mean);
+  out += line(" lift / drive power %s N/W (perfect storage), %s N/W (no storage)",
+              opt(s.derived.lift_per_power_storage_perfect).c_str(),
+              opt(s.derived.lift_per_power_storage_none).c_str());
+  static const char* names[] = {"stroke", "deviation", "pitch", "span ratio", "plunge"};
+  static const char* units[] = {"N m", "N m", "N m", "J", "N"};
+  for (std::size_t w = 0; w < 2; ++w) {
+    const WingDriveStats& d = a.drive[w];
+    out += line(" %s wing: power %.5g W (perfect storage), %.5g W (no storage), peak %.5g W",
+                w == 0 ? "right" : "left", d.power_storage_perfect, d.power_storage_none,
+                d.power_peak);
+    for (std::size_t j = 0; j < static_cast<std::size_t>(kJoints); ++j) {
+      const JointStats& q = d.joint[j];
+      out += line("   %-10s torque RMS %.4g %s (aero %.4g, inertial %.4g), peak %.4g %s; power "
+                  "%.4g W / %.4g W, peak %.4g W",
+                  names[j], q.torque_rms, units[j], q.torque_aero_rms, q.torque_inertial_rms,
+                  q.torque_peak, units[j], q.power_storage_perfect, q.power_storage_none,
+                  q.power_peak);
+    }
+  }
+  return out;
+}
+
 }  // namespace
 
 std::string RunSummary::brief_report() const {
@@ -65,6 +96,11 @@ std::string RunSummary::brief_report() const {
   out += wrench_lines(averages.mean, "  ");
   out += line("  power to the air: mean %.5g W, peak %.5g W; actuator mean %.5g W",
               averages.power_air_mean, averages.power_air_peak, averages.power_actuator_mean);
+  if (averages.power_mechanical_storage_none != 0.0)
+    out += line("  drive power: %.5g W with perfect elastic storage, %.5g W with none; lift/power "
+                "%s N/W (no storage)",
+                averages.power_mechanical_storage_perfect, averages.power_mechanical_storage_none,
+                opt(derived.lift_per_power_storage_none).c_str());
   out += line("  mean lift coefficient %s, Re %s, reduced frequency %s, advance ratio %s",
               opt(derived.mean_lift_coefficient).c_str(), opt(derived.reynolds_number, "%.0f").c_str(),
               opt(derived.reduced_frequency).c_str(), opt(derived.advance_ratio).c_str());
@@ -94,8 +130,9 @@ std::string RunSummary::full_report() const {
   out += line(" actuator power:   mean %.5g W, peak %.5g W, mean of positive part %.5g W",
               averages.power_actuator_mean, averages.power_actuator_peak,
               averages.power_actuator_mean_positive);
-  out += line(" lift / power %s N/W; RMS of |F| %.5g N; induced drag %.5g N",
-              opt(f.lift_to_power).c_str(), averages.force_rms, averages.induced_drag_mean);
+  out += line(" RMS of |F| %.5g N; induced drag %.5g N", averages.force_rms,
+              averages.induced_drag_mean);
+  out += drive_lines(*this);
   out += line(" mean lift coefficient %s, Reynolds number %s, reduced frequency %s, advance ratio %s",
               opt(f.mean_lift_coefficient).c_str(), opt(f.reynolds_number, "%.0f").c_str(),
               opt(f.reduced_frequency).c_str(), opt(f.advance_ratio).c_str());

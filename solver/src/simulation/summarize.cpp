@@ -87,8 +87,11 @@ void derive_quantities(const Model& model, Workspace& ws, int last_cycle, RunSum
   }
   if (d.stroke_peak_to_peak > 1e-12)
     d.advance_ratio = d.airspeed / (2.0 * d.stroke_peak_to_peak * model.frequency() * d.span);
-  if (std::abs(out.averages.power_air_mean) > 1e-15)
-    d.lift_to_power = lift / out.averages.power_air_mean;
+  const CycleStats& a = out.averages;
+  if (std::abs(a.power_mechanical_storage_perfect) > 1e-15)
+    d.lift_per_power_storage_perfect = lift / a.power_mechanical_storage_perfect;
+  if (a.power_mechanical_storage_none > 1e-15)
+    d.lift_per_power_storage_none = lift / a.power_mechanical_storage_none;
   d.reverse_flow_fraction = static_cast<double>(reverse) / static_cast<double>(strip_samples);
   d.high_alpha_fraction = static_cast<double>(high_alpha) / static_cast<double>(strip_samples);
 }
@@ -140,6 +143,31 @@ void CycleAccumulator::add(const LoadSample& s) {
   act_pos_ += std::max(0.0, s.power_actuator);
   force_sq_ += s.total.force.squaredNorm();
   induced_ += s.induced_drag;
+  for (std::size_t w = 0; w < 2; ++w) {
+    const WingDriveSample& d = s.drive[w];
+    WingSums& a = drive_[w];
+    for (std::size_t j = 0; j < static_cast<std::size_t>(kJoints); ++j) {
+      JointSums& q = a.joint[j];
+      q.torque_sq += d.torque[j] * d.torque[j];
+      q.aero_sq += d.torque_aero[j] * d.torque_aero[j];
+      q.inertial_sq += d.torque_inertial[j] * d.torque_inertial[j];
+      q.torque_peak = std::max(q.torque_peak, std::abs(d.torque[j]));
+      q.power += d.joint_power[j];
+      q.power_pos += std::max(0.0, d.joint_power[j]);
+      q.power_peak = std::max(q.power_peak, std::abs(d.joint_power[j]));
+    }
+    a.power += d.power;
+    a.power_pos += std::max(0.0, d.power);
+    a.power_peak = std::max(a.power_peak, std::abs(d.power));
+    a.inertial_power += d.power_inertial;
+    a.inertial += d.inertial;
+  }
+  mech_ += s.power_mechanical;
+  mech_pos_ += std::max(0.0, s.power_mechanical);
+  mech_peak_ = std::max(mech_peak_, std::abs(s.power_mechanical));
+  inertial_power_ += s.power_inertial;
+  inertial_ += s.inertial;
+  profile_drag_ += s.profile_drag;
   ++samples_;
 }
 
@@ -160,6 +188,34 @@ CycleStats CycleAccumulator::stats() const {
   c.power_actuator_mean_positive = act_pos_ * inv;
   c.force_rms = std::sqrt(force_sq_ * inv);
   c.induced_drag_mean = induced_ * inv;
+  for (std::size_t w = 0; w < 2; ++w) {
+    const WingSums& a = drive_[w];
+    WingDriveStats& o = c.drive[w];
+    for (std::size_t j = 0; j < static_cast<std::size_t>(kJoints); ++j) {
+      const JointSums& q = a.joint[j];
+      JointStats& js = o.joint[j];
+      js.torque_rms = std::sqrt(q.torque_sq * inv);
+      js.torque_peak = q.torque_peak;
+      js.torque_aero_rms = std::sqrt(q.aero_sq * inv);
+      js.torque_inertial_rms = std::sqrt(q.inertial_sq * inv);
+      js.power_storage_perfect = q.power * inv;
+      js.power_storage_none = q.power_pos * inv;
+      js.power_peak = q.power_peak;
+    }
+    o.power_storage_perfect = a.power * inv;
+    o.power_storage_none = a.power_pos * inv;
+    o.power_peak = a.power_peak;
+    o.power_inertial_mean = a.inertial_power * inv;
+    o.inertial_mean.force = a.inertial.force * inv;
+    o.inertial_mean.moment = a.inertial.moment * inv;
+  }
+  c.power_mechanical_storage_perfect = mech_ * inv;
+  c.power_mechanical_storage_none = mech_pos_ * inv;
+  c.power_mechanical_peak = mech_peak_;
+  c.power_inertial_mean = inertial_power_ * inv;
+  c.inertial_mean.force = inertial_.force * inv;
+  c.inertial_mean.moment = inertial_.moment * inv;
+  c.profile_drag_mean = profile_drag_ * inv;
   return c;
 }
 

@@ -52,6 +52,38 @@ void add_vehicle_wrench(std::vector<SummaryKey>& keys, const std::string& prefix
   for (std::size_t i = 0; i < 6; ++i) keys.push_back({prefix + names[i], get[i], false, true});
 }
 
+// Drive keys (simulation/drive.hpp): per joint of each wing, per wing and for the pair.
+template <int Wing, int J>
+const JointStats& joint_of(const RunSummary& s) {
+  return s.averages.drive[Wing].joint[J];
+}
+
+template <int Wing, int J>
+void add_joint_keys(std::vector<SummaryKey>& keys, const std::string& prefix) {
+  static constexpr std::array<const char*, kJoints> unit{"Nm", "Nm", "Nm", "J", "N"};
+  const std::string u = unit[J];
+  keys.push_back({prefix + "torque_rms_" + u, [](const RunSummary& s) -> Value { return joint_of<Wing, J>(s).torque_rms; }});
+  keys.push_back({prefix + "torque_peak_" + u, [](const RunSummary& s) -> Value { return joint_of<Wing, J>(s).torque_peak; }});
+  keys.push_back({prefix + "torque_aero_rms_" + u, [](const RunSummary& s) -> Value { return joint_of<Wing, J>(s).torque_aero_rms; }});
+  keys.push_back({prefix + "torque_inertial_rms_" + u, [](const RunSummary& s) -> Value { return joint_of<Wing, J>(s).torque_inertial_rms; }});
+  keys.push_back({prefix + "power_storage_perfect_W", [](const RunSummary& s) -> Value { return joint_of<Wing, J>(s).power_storage_perfect; }});
+  keys.push_back({prefix + "power_storage_none_W", [](const RunSummary& s) -> Value { return joint_of<Wing, J>(s).power_storage_none; }});
+  keys.push_back({prefix + "power_peak_W", [](const RunSummary& s) -> Value { return joint_of<Wing, J>(s).power_peak; }});
+}
+
+template <int Wing>
+void add_wing_drive_keys(std::vector<SummaryKey>& keys, const std::string& prefix) {
+  keys.push_back({prefix + "power_storage_perfect_W", [](const RunSummary& s) -> Value { return s.averages.drive[Wing].power_storage_perfect; }});
+  keys.push_back({prefix + "power_storage_none_W", [](const RunSummary& s) -> Value { return s.averages.drive[Wing].power_storage_none; }});
+  keys.push_back({prefix + "power_peak_W", [](const RunSummary& s) -> Value { return s.averages.drive[Wing].power_peak; }});
+  keys.push_back({prefix + "inertial_power_mean_W", [](const RunSummary& s) -> Value { return s.averages.drive[Wing].power_inertial_mean; }});
+  add_joint_keys<Wing, 0>(keys, prefix + "stroke.");
+  add_joint_keys<Wing, 1>(keys, prefix + "deviation.");
+  add_joint_keys<Wing, 2>(keys, prefix + "pitch.");
+  add_joint_keys<Wing, 3>(keys, prefix + "span_ratio.");
+  add_joint_keys<Wing, 4>(keys, prefix + "plunge.");
+}
+
 std::vector<SummaryKey> make_keys() {
   std::vector<SummaryKey> k;
   auto add = [&k](const char* path, Value (*f)(const RunSummary&)) { k.push_back({path, f}); };
@@ -86,7 +118,24 @@ std::vector<SummaryKey> make_keys() {
   add("power.actuator_mean_W", [](const RunSummary& s) -> Value { return s.averages.power_actuator_mean; });
   add("power.actuator_peak_W", [](const RunSummary& s) -> Value { return s.averages.power_actuator_peak; });
   add("power.actuator_mean_positive_W", [](const RunSummary& s) -> Value { return s.averages.power_actuator_mean_positive; });
-  add("power.lift_to_power_N_per_W", [](const RunSummary& s) -> Value { return s.derived.lift_to_power; });
+  add("drive.pair.power_storage_perfect_W", [](const RunSummary& s) -> Value { return s.averages.power_mechanical_storage_perfect; });
+  add("drive.pair.power_storage_none_W", [](const RunSummary& s) -> Value { return s.averages.power_mechanical_storage_none; });
+  add("drive.pair.power_peak_W", [](const RunSummary& s) -> Value { return s.averages.power_mechanical_peak; });
+  add("drive.pair.inertial_power_mean_W", [](const RunSummary& s) -> Value { return s.averages.power_inertial_mean; });
+  add("drive.lift_per_power_storage_perfect_N_per_W", [](const RunSummary& s) -> Value {
+    return s.derived.lift_per_power_storage_perfect;
+  });
+  add("drive.lift_per_power_storage_none_N_per_W", [](const RunSummary& s) -> Value {
+    return s.derived.lift_per_power_storage_none;
+  });
+  add("drive.inertial_mean.X_N", [](const RunSummary& s) -> Value { return s.averages.inertial_mean.force.x(); });
+  add("drive.inertial_mean.Y_N", [](const RunSummary& s) -> Value { return s.averages.inertial_mean.force.y(); });
+  add("drive.inertial_mean.Z_N", [](const RunSummary& s) -> Value { return s.averages.inertial_mean.force.z(); });
+  add("drive.inertial_mean.L_roll_Nm", [](const RunSummary& s) -> Value { return s.averages.inertial_mean.moment.x(); });
+  add("drive.inertial_mean.M_pitch_Nm", [](const RunSummary& s) -> Value { return s.averages.inertial_mean.moment.y(); });
+  add("drive.inertial_mean.N_yaw_Nm", [](const RunSummary& s) -> Value { return s.averages.inertial_mean.moment.z(); });
+  add_wing_drive_keys<0>(k, "drive.right_wing.");
+  add_wing_drive_keys<1>(k, "drive.left_wing.");
   add("derived.reference_speed_m_s", [](const RunSummary& s) -> Value { return s.derived.reference_speed; });
   add("derived.mean_lift_coefficient", [](const RunSummary& s) -> Value { return s.derived.mean_lift_coefficient; });
   add("derived.reynolds_number", [](const RunSummary& s) -> Value { return s.derived.reynolds_number; });
@@ -96,6 +145,8 @@ std::vector<SummaryKey> make_keys() {
   add("derived.airspeed_m_s", [](const RunSummary& s) -> Value { return s.derived.airspeed; });
   add("derived.force_rms_N", [](const RunSummary& s) -> Value { return s.averages.force_rms; });
   add("derived.induced_drag_N", [](const RunSummary& s) -> Value { return s.averages.induced_drag_mean; });
+  add("drag.profile_X_N", [](const RunSummary& s) -> Value { return s.averages.profile_drag_mean.x(); });
+  add("drag.profile_Z_N", [](const RunSummary& s) -> Value { return s.averages.profile_drag_mean.z(); });
   add("derived.reverse_flow_fraction", [](const RunSummary& s) -> Value { return s.derived.reverse_flow_fraction; });
   // With a vehicle section (null without one).
   add_vehicle("vehicle.weight_N", [](const RunSummary& s) -> Value {

@@ -3,6 +3,7 @@
 #include "flapline/common/math.hpp"
 #include "flapline/case/model.hpp"
 #include "flapline/case/workspace.hpp"
+#include "flapline/simulation/drive.hpp"
 
 namespace flapline {
 
@@ -42,6 +43,11 @@ LoadSample sum_loads(const Model& model, const Workspace& ws, double t) {
   for (Eigen::Index k = 0; k < 2 * n; ++k)
     out.induced_drag -= rho * L.circulation(k) * L.w_induced(k) *
                         ws.poses[k < n ? 0 : 1].span_ratio * model.pair().width(k);
+  if (model.aero_options().profile_drag.law != ProfileDragLaw::none)
+    for (Eigen::Index k = 0; k < 2 * n; ++k)
+      out.profile_drag += k < n ? Eigen::Vector3d(L.profile_drag.col(k))
+                                : mirror(L.profile_drag.col(k));
+  add_drive(model, ws, t, out);
   return out;
 }
 

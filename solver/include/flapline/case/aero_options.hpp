@@ -91,7 +91,6 @@ struct RevolvingFit {
   double drag_coefficient(double alpha) const;
 };
 
-/// Every aerodynamic option of a run, with defaults.
 /// How the lifting line solves its circulation system (I − D₀K)Γ = r at each stage.
 enum class LineSolve {
   structured,  ///< per-phase inverses, split into mirror halves when the wings move alike (default)
@@ -103,6 +102,32 @@ struct EnumNames<LineSolve> {
       {{LineSolve::structured, "structured"}, {LineSolve::direct, "direct"}}};
 };
 
+/// Zero-lift profile (skin-friction) drag of each section.
+enum class ProfileDragLaw {
+  none,      ///< no profile drag (default)
+  constant,  ///< a constant coefficient C_D0 (model.profile_drag.coefficient)
+  blasius    ///< laminar flat plate, both faces: C_D0 = 2·1.328/√Re_c (Blasius 1908), Re_c ≥ 100
+};
+template <>
+struct EnumNames<ProfileDragLaw> {
+  static constexpr std::array<std::pair<ProfileDragLaw, std::string_view>, 3> items{
+      {{ProfileDragLaw::none, "none"},
+       {ProfileDragLaw::constant, "constant"},
+       {ProfileDragLaw::blasius, "blasius"}}};
+};
+
+/// Profile drag ½ρC_D0 c U² per unit span along the air's velocity relative to the section (in
+/// the section plane), acting at mid-chord; thin-airfoil law only.
+struct ProfileDrag {
+  ProfileDragLaw law = ProfileDragLaw::none;
+  double coefficient = 0.0;  ///< C_D0 of the constant law, [0, 2]
+  /// Floor of the chord Reynolds number U c/ν in the Blasius law.
+  static constexpr double kMinReynolds = 100.0;
+  /// C_D0 at chord Reynolds number `reynolds` (the floor applied for blasius).
+  double coefficient_at(double reynolds) const;
+};
+
+/// Every aerodynamic option of a run, with defaults.
 struct AeroOptions {
   ModelKind kind = ModelKind::quasi_steady;
   CoefficientLaw law = CoefficientLaw::thin_airfoil;  ///< quasi_steady only
@@ -115,6 +140,7 @@ struct AeroOptions {
   ReverseFlow reverse_flow = ReverseFlow::attached;  ///< thin-airfoil loads
   SpanCoupling span_coupling = SpanCoupling::both_wings;  ///< lifting_line only
   LineSolve line_solve = LineSolve::structured;           ///< lifting_line only
+  ProfileDrag profile_drag;  ///< thin_airfoil law only
 };
 
 /// Throws InputError for an option out of range.

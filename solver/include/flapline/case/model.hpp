@@ -12,6 +12,7 @@
 
 #include "flapline/case/aero_options.hpp"
 #include "flapline/case/atmosphere.hpp"
+#include "flapline/geometry/mass.hpp"
 #include "flapline/geometry/planform.hpp"
 #include "flapline/geometry/strips.hpp"
 #include "flapline/kinematics/gait.hpp"
@@ -25,6 +26,7 @@ namespace flapline {
 struct ModelSpec {
   std::string title;  ///< free text shown in reports
   PlanformSpec wing;
+  WingMassSpec wing_mass;  ///< `wing.mass`: none by default (inertial loads then vanish)
   StripSpec strips;
   GaitSpec gait;
   FlightSpec flight;
@@ -59,6 +61,8 @@ class Model {
   const Strips& strips() const noexcept { return strips_; }
   const PairArrays& pair() const noexcept { return pair_; }
   const Air& air() const noexcept { return air_; }
+  /// One wing's mass elements (empty for a massless wing).
+  const MassElements& mass() const noexcept { return mass_; }
   const WingMotion& motion(Side side) const noexcept { return motion_[static_cast<int>(side)]; }
   const AeroOptions& aero_options() const noexcept { return spec_.aero; }
   const SimulationOptions& simulation() const noexcept { return spec_.simulation; }
@@ -80,6 +84,7 @@ class Model {
   Planform planform_;
   Strips strips_;
   PairArrays pair_;
+  MassElements mass_;
   Air air_;
   std::array<WingMotion, 2> motion_;
   bool periodic_ = true;

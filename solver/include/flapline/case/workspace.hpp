@@ -26,6 +26,8 @@ struct StripLoads {
   Eigen::ArrayXd w_effective;      ///< w_E (m/s)
   Eigen::ArrayXd w_suction;        ///< w_S (m/s)
   Eigen::ArrayXd w_induced;        ///< KΓ, induced normal-wash at the control point (m/s)
+  /// N, the profile-drag part of force_mid (model.profile_drag; zero without it)
+  Eigen::Matrix3Xd profile_drag;
   void resize(Eigen::Index n);
 };
 

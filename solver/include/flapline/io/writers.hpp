@@ -23,6 +23,14 @@ std::string history_csv(const RunSummary& summary);
 const std::vector<std::string>& history_columns();
 std::vector<std::vector<double>> history_table(const RunSummary& summary);
 
+/// drive.csv: one row per output sample (time, cycle, phase), then for each wing and joint
+/// coordinate (stroke, deviation, pitch, span ratio, plunge) its rate, the generalised force the
+/// drive supplies with its aerodynamic, inertial and gravitational parts, and its power; each
+/// wing's power and inertial power; the pair's power (simulation/drive.hpp).
+std::string drive_csv(const RunSummary& summary);
+const std::vector<std::string>& drive_columns();
+std::vector<std::vector<double>> drive_table(const RunSummary& summary);
+
 /// spanwise.csv: per strip at each requested phase and the cycle mean.
 std::string spanwise_csv(const RunSummary& summary);
 

@@ -51,6 +51,25 @@ struct HistoryRow {
   std::array<WingAngles, 2> angles;  ///< right, left
 };
 
+/// Cycle statistics of one joint's drive (simulation/drive.hpp).
+struct JointStats {
+  double torque_rms = 0, torque_peak = 0;  ///< of the total τ (N·m, J, N); peak = max |τ|
+  double torque_aero_rms = 0, torque_inertial_rms = 0;  ///< RMS of the parts
+  /// Power bounds of flight energetics (Ellington 1984, Phil. Trans. R. Soc. B 305, Part VI — from
+  /// memory): mean of τq̇ (perfect elastic storage) and mean of its positive part (no storage).
+  double power_storage_perfect = 0, power_storage_none = 0;
+  double power_peak = 0;  ///< max |τq̇| (W)
+};
+
+/// Cycle statistics of one wing's drive.
+struct WingDriveStats {
+  std::array<JointStats, kJoints> joint;
+  /// The wing's mechanical power Σ_j τ_j q̇_j: mean, mean of its positive part, max |·| (W).
+  double power_storage_perfect = 0, power_storage_none = 0, power_peak = 0;
+  double power_inertial_mean = 0;  ///< W (0 for a periodic gait without body rates)
+  Wrench inertial_mean;            ///< mean inertial load on the body
+};
+
 /// Statistics of one whole cycle (uniform samples; the end point is the next cycle's start).
 struct CycleStats {
   Wrench mean;                     ///< both wings
@@ -59,6 +78,13 @@ struct CycleStats {
   double power_actuator_mean = 0, power_actuator_peak = 0, power_actuator_mean_positive = 0;
   double force_rms = 0;  ///< RMS of |F| of the pair over the cycle (N)
   double induced_drag_mean = 0;  ///< cycle mean of LoadSample::induced_drag (N)
+  std::array<WingDriveStats, 2> drive;  ///< right, left
+  /// Both drives' mechanical power: mean, mean of the positive part, max |·| (W).
+  double power_mechanical_storage_perfect = 0, power_mechanical_storage_none = 0;
+  double power_mechanical_peak = 0;
+  double power_inertial_mean = 0;  ///< W
+  Wrench inertial_mean;            ///< both wings' inertial load on the body, cycle mean
+  Eigen::Vector3d profile_drag_mean = Eigen::Vector3d::Zero();  ///< N, body axes (pair)
 };
 
 /// Derived scalars (DESIGN §5): planform figures, reference speed and the non-dimensional groups,
@@ -76,7 +102,9 @@ struct DerivedQuantities {
   std::optional<double> reynolds_number;        ///< U_ref c̄/ν
   std::optional<double> reduced_frequency;      ///< π f c̄/U_ref
   std::optional<double> advance_ratio;          ///< V/(2ΦfR); none when Φ = 0
-  std::optional<double> lift_to_power;          ///< mean lift / mean power to the air (N/W)
+  /// Mean lift / the drive's mechanical power with perfect elastic storage (its mean) and with
+  /// none (mean of its positive part) (N/W); none when that power is 0.
+  std::optional<double> lift_per_power_storage_perfect, lift_per_power_storage_none;
   double reverse_flow_fraction = 0;  ///< share of strip samples with U_t < 0 (last cycle)
   double high_alpha_fraction = 0;    ///< share of strip samples with |α| > 30° (last cycle)
 };

@@ -27,6 +27,20 @@ class CycleAccumulator {
   double act_sum_ = 0, act_peak_ = -std::numeric_limits<double>::infinity(), act_pos_ = 0;
   double force_sq_ = 0, induced_ = 0;
   long samples_ = 0;
+  // Drive sums per wing and joint: Σ τ², Σ τ_aero², Σ τ_inertial², Σ P, Σ max(P, 0), and peaks.
+  struct JointSums {
+    double torque_sq = 0, aero_sq = 0, inertial_sq = 0, torque_peak = 0;
+    double power = 0, power_pos = 0, power_peak = 0;
+  };
+  struct WingSums {
+    std::array<JointSums, kJoints> joint;
+    double power = 0, power_pos = 0, power_peak = 0, inertial_power = 0;
+    Wrench inertial;
+  };
+  std::array<WingSums, 2> drive_;
+  double mech_ = 0, mech_pos_ = 0, mech_peak_ = 0, inertial_power_ = 0;
+  Wrench inertial_;
+  Eigen::Vector3d profile_drag_ = Eigen::Vector3d::Zero();
 };
 
 /// Per-strip loading of the current cycle: the rows at the requested phases and the sums for the

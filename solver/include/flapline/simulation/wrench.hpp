@@ -22,6 +22,23 @@ struct Wrench {
   }
 };
 
+/// Joint coordinates per wing: stroke, deviation, pitch, span ratio, plunge.
+inline constexpr int kJoints = 5;
+
+/// Drive quantities of one wing at one instant (filled by add_drive, simulation/drive.hpp).
+struct WingDriveSample {
+  std::array<double, kJoints> rate{};             ///< q̇ (rad/s, 1/s, m/s)
+  std::array<double, kJoints> torque_aero{};      ///< −Σ(F·∂x/∂q + C·∂ω/∂q̇) (N·m, J, N)
+  std::array<double, kJoints> torque_inertial{};  ///< Σ(m a·∂x/∂q + Ḣ·∂ω/∂q̇) + stretching term
+  std::array<double, kJoints> torque_gravity{};   ///< −Σ m g·∂x/∂q (with a vehicle; else 0)
+  /// What the drive supplies: aerodynamic + inertial, + gravity when the case has a vehicle.
+  std::array<double, kJoints> torque{};
+  std::array<double, kJoints> joint_power{};      ///< τ_j q̇_j (W)
+  double power_inertial = 0.0;  ///< Σ τ_inertial q̇ (W)
+  double power = 0.0;           ///< Σ_j power: mechanical power of this wing (W)
+  Wrench inertial;              ///< −Σ m a and −Σ(x × m a + Ḣ) on the body, body axes
+};
+
 /// Loads of the pair at one instant.
 struct LoadSample {
   double time = 0.0;            ///< s
@@ -35,6 +52,15 @@ struct LoadSample {
   /// Induced drag −ρΣΓ·w_i·width (N): the force tilt from the induced normal-wash w_i = KΓ
   /// (lifting line only; 0 otherwise). For a steady wing it is the drag.
   double induced_drag = 0.0;
+  /// Profile drag of both wings (body axes; part of `total`, zero without model.profile_drag) (N).
+  Eigen::Vector3d profile_drag = Eigen::Vector3d::Zero();
+  /// Inertial load of the wings' masses on the body (both wings; zero for massless wings).
+  Wrench inertial;
+  /// Drive of each wing (right, left): joint torques and power (simulation/drive.hpp).
+  std::array<WingDriveSample, 2> drive;
+  /// Mechanical power of both drives, Σ τ q̇ = inertial power + actuator power (+ gravity's) (W).
+  double power_mechanical = 0.0;
+  double power_inertial = 0.0;  ///< inertial part of power_mechanical (W)
 };
 
 /// Sum ws.loads (virtual frames) into body axes: forces Mv and moments −Mv for the left wing.

@@ -1,0 +1,41 @@
+#pragma once
+/// \file
+/// What the drive of each wing supplies (DESIGN §9): generalised forces conjugate to the joint
+/// coordinates q = (φ, θ, ψ, λ, z_p) — stroke, deviation, pitch (rad), span ratio (–) and the
+/// shared plunge (m, body +z) — split into aerodynamic, inertial and gravitational parts, the
+/// power of each joint, and the inertial load the wing's mass puts on the body.
+///
+/// For a material point x(q) of the wing, τ_j = Σ m a·∂x/∂q_j + Ḣ·∂ω/∂q̇_j − Σ(F·∂x/∂q_j +
+/// C·∂ω/∂q̇_j) (d'Alembert's principle in Lagrange's form), with a the inertial acceleration (the
+/// body moving at constant velocity and rates included) and F, C the strip loads at their points
+/// of action. Since Σ_j ∂x/∂q_j q̇_j is the point's velocity relative to the body, Σ_j τ_j q̇_j
+/// is the inertial power plus the actuator power exactly, whatever the axes.
+
+#include <array>
+
+#include "flapline/common/enum_names.hpp"
+#include "flapline/simulation/wrench.hpp"
+
+namespace flapline {
+
+class Model;
+class Workspace;
+
+/// The joint coordinates of one wing.
+enum class Joint { stroke, deviation, pitch, span_ratio, plunge };
+template <>
+struct EnumNames<Joint> {
+  static constexpr std::array<std::pair<Joint, std::string_view>, 5> items{
+      {{Joint::stroke, "stroke"},
+       {Joint::deviation, "deviation"},
+       {Joint::pitch, "pitch"},
+       {Joint::span_ratio, "span_ratio"},
+       {Joint::plunge, "plunge"}}};
+};
+static_assert(kJoints == 5, "one generalised force per joint coordinate");
+
+/// Fill out.drive, out.inertial, out.power_mechanical and out.power_inertial from the poses,
+/// sections and strip loads in ws at time t (sum_loads has filled the aerodynamic part).
+void add_drive(const Model& model, const Workspace& ws, double t, LoadSample& out);
+
+}  // namespace flapline
