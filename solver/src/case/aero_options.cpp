@@ -81,6 +81,15 @@ void validate(const AeroOptions& o) {
                      "applies to the thin_airfoil law only; leave it at 1 with revolving_fit",
                      "the fit already holds what the experiment measured")
         .between_keys();
+  if (!(o.inflow_relaxation > 0.0 && o.inflow_relaxation <= 1.0))
+    throw InputError("model.inflow_relaxation", format_number(o.inflow_relaxation),
+                     "must lie in (0, 1]");
+  if (o.inflow == InflowModel::span_disc && o.kind == ModelKind::lifting_line)
+    throw InputError("model.inflow", "span_disc",
+                     "does not apply to the lifting_line model, whose trailing vortices already "
+                     "carry the downwash of the span",
+                     "use stroke_disc (far wake of earlier strokes) or a strip model")
+        .between_keys();
   const ProfileDrag& d = o.profile_drag;
   if (!(d.coefficient >= 0.0 && d.coefficient <= 2.0))
     throw InputError("model.profile_drag.coefficient", format_number(d.coefficient),

@@ -1,5 +1,6 @@
 #include "flapline/case/model.hpp"
 
+#include <algorithm>
 #include <cmath>
 
 #include "flapline/common/errors.hpp"
@@ -108,12 +109,42 @@ Model::Model(ModelSpec spec)
   for (const WingMotion& m : motion_)
     for (const Waveform* w : {&m.stroke, &m.deviation, &m.pitch, &m.span_ratio, &m.plunge})
       if (w->spec().shape == WaveShape::step) periodic_ = false;
+  check_inflow();
   if (!periodic_ && spec_.simulation.start == StartMode::periodic &&
       spec_.aero.kind != ModelKind::quasi_steady)
     throw InputError("simulation.start", "periodic",
                      "needs kinematics that repeat every cycle, and a `step` waveform never "
                      "repeats",
                      "use start: rest or quasi_steady with a step waveform")
+        .between_keys();
+}
+
+void Model::check_inflow() const {
+  const InflowModel inflow = spec_.aero.inflow;
+  if (inflow == InflowModel::none) return;
+  const std::string name(to_string(inflow));
+  double stroke = 0.0;
+  for (const WingMotion& m : motion_) stroke = std::max(stroke, m.stroke.maximum() - m.stroke.minimum());
+  if (!(stroke > 1e-9))
+    throw InputError("model.inflow", name,
+                     "needs flapping wings: the stroke is constant, so there is no stroke disc",
+                     "a fixed wing's downwash is the lifting_line model's job")
+        .between_keys();
+  if (!periodic_)
+    throw InputError("model.inflow", name, "needs kinematics that repeat every cycle (no step waveform)")
+        .between_keys();
+  if (inflow == InflowModel::stroke_disc && std::abs(spec_.gait.stroke_plane_angle) > 0.25 * kPi + 1e-12)
+    throw InputError("model.inflow", name,
+                     "needs a stroke plane within ±45 deg of level (gait.stroke_plane_angle is " +
+                         format_number(spec_.gait.stroke_plane_angle / kDegree) + " deg)",
+                     "the stroke-plane disc models hover and slow flight; use span_disc in forward "
+                     "flight")
+        .between_keys();
+  if (inflow == InflowModel::span_disc && (spec_.flight.velocity - spec_.flight.wind).norm() < 1e-9)
+    throw InputError("model.inflow", name,
+                     "needs an airspeed (flight.velocity − flight.wind is zero): the span disc "
+                     "models forward flight",
+                     "use stroke_disc in hover")
         .between_keys();
 }
 

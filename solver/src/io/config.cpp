@@ -580,7 +580,10 @@ class Reader {
   void read_model(const YAML::Node& m, AeroOptions& o) const {
     check_keys(m, "model", {"kind", "coefficient_law", "suction_recovery", "vortex_lift", "fit",
                             "wagner_fit", "reverse_flow", "span_coupling", "line_solve",
-                            "profile_drag"});
+                            "profile_drag", "inflow", "inflow_relaxation"});
+    if (has(m, "inflow")) o.inflow = choice<InflowModel>(m["inflow"], "model.inflow");
+    if (has(m, "inflow_relaxation"))
+      o.inflow_relaxation = number(m["inflow_relaxation"], "model.inflow_relaxation");
     if (has(m, "profile_drag")) {
       const YAML::Node d = map_at(m, "model", "profile_drag");
       check_keys(d, "model.profile_drag", {"law", "coefficient"});

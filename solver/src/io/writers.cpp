@@ -225,6 +225,7 @@ std::string summary_json(const RunSummary& s, const std::string& config_path) {
   // Every scalar from the frozen key list (simulation/summary_keys.hpp), nested by its path.
   for (const SummaryKey& k : summary_keys()) {
     if (k.vehicle && !s.vehicle) continue;  // without a vehicle, nothing changes
+    if (k.inflow && !s.inflow) continue;
     const std::optional<double> v = k.value(s);
     json& slot = j[json::json_pointer("/" + replace_all(k.path, ".", "/"))];
     if (!v)

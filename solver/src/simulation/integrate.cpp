@@ -34,17 +34,6 @@ void check_loads(const Model& model, const Workspace& ws, double t) {
   }
 }
 
-/// Relative change between consecutive cycle means (DESIGN §5): forces against RMS|F|, moments
-/// against RMS|F|·R; one scale for all components.
-double cycle_change(const CycleStats& a, const CycleStats& b, double span) {
-  const double scale = std::max(a.force_rms, b.force_rms);
-  const double df = (a.mean.force - b.mean.force).cwiseAbs().maxCoeff();
-  const double dm = (a.mean.moment - b.mean.moment).cwiseAbs().maxCoeff() / span;
-  const double d = std::max(df, dm);
-  if (scale > 0.0) return d / scale;
-  return d == 0.0 ? 0.0 : std::numeric_limits<double>::infinity();
-}
-
 /// Sizes the exponential stepper for the Workspace's Model and sets the strips' linear parts
 /// (once per build or reset; the weights of each step phase are cached for periodic kinematics).
 void prepare_exponential(const Model& model, Workspace& ws, const AeroModel& aero) {
@@ -195,6 +184,17 @@ void exponential_step(const Model& model, Workspace& ws, const AeroModel& aero, 
 
 }  // namespace
 
+/// Relative change between consecutive cycle means (DESIGN §5): forces against RMS|F|, moments
+/// against RMS|F|·R; one scale for all components.
+double cycle_change(const CycleStats& a, const CycleStats& b, double span) {
+  const double scale = std::max(a.force_rms, b.force_rms);
+  const double df = (a.mean.force - b.mean.force).cwiseAbs().maxCoeff();
+  const double dm = (a.mean.moment - b.mean.moment).cwiseAbs().maxCoeff() / span;
+  const double d = std::max(df, dm);
+  if (scale > 0.0) return d / scale;
+  return d == 0.0 ? 0.0 : std::numeric_limits<double>::infinity();
+}
+
 void advance(const Model& model, Workspace& ws, double t, double dt) {
   assert(ws.built_for(model) && "a Workspace serves the Model it was built or reset for");
   const AeroModel& aero = aero_model(model);
@@ -237,13 +237,24 @@ RunSummary simulate(const Model& model, Workspace& ws, const RunControl& control
     assert(false && "simulate: the Workspace was built for another Model (call ws.reset first)");
     ws.reset(model);
   }
+  if (model.aero_options().inflow != InflowModel::none)
+    return simulate_with_inflow(model, ws, control);
+  return simulate_cycles(model, ws, control, nullptr);
+}
+
+RunSummary simulate_cycles(const Model& model, Workspace& ws, const RunControl& control,
+                           const Eigen::VectorXd* initial_state) {
+  assert(ws.built_for(model) && "a Workspace serves the Model it was built or reset for");
   const SimulationOptions& opt = model.simulation();
   const AeroModel& aero = attach_aero(model, ws);
   RunSummary out;
   start_summary(model, out);
   check_step_size(model, ws, aero);
   aero.prepare_run(model, ws);
-  aero.initial_state(model, ws, 0.0, opt.start, ws.state);
+  if (initial_state && initial_state->size() == ws.state.size())
+    ws.state = *initial_state;
+  else
+    aero.initial_state(model, ws, 0.0, opt.start, ws.state);
   const std::size_t keep_cycles =
       opt.history == HistoryKeep::all ? static_cast<std::size_t>(std::min(opt.max_cycles, 64)) : 1;
   if (control.keep_history)

@@ -101,6 +101,9 @@ std::string RunSummary::brief_report() const {
                 "%s N/W (no storage)",
                 averages.power_mechanical_storage_perfect, averages.power_mechanical_storage_none,
                 opt(derived.lift_per_power_storage_none).c_str());
+  if (inflow)
+    out += line("  inflow: w0 %.5g m/s (%s), induced power %.5g W", inflow->w0,
+                std::string(to_string(inflow->kind)).c_str(), inflow->induced_power);
   out += line("  mean lift coefficient %s, Re %s, reduced frequency %s, advance ratio %s",
               opt(derived.mean_lift_coefficient).c_str(), opt(derived.reynolds_number, "%.0f").c_str(),
               opt(derived.reduced_frequency).c_str(), opt(derived.advance_ratio).c_str());
@@ -133,6 +136,11 @@ std::string RunSummary::full_report() const {
   out += line(" RMS of |F| %.5g N; induced drag %.5g N", averages.force_rms,
               averages.induced_drag_mean);
   out += drive_lines(*this);
+  if (inflow)
+    out += line(" inflow (%s): w0 %.5g m/s over a disc of %.5g m^2 carrying %.5g N; induced power "
+                "%.5g W, Rankine-Froude ideal %.5g W",
+                std::string(to_string(inflow->kind)).c_str(), inflow->w0, inflow->area,
+                inflow->thrust, inflow->induced_power, inflow->ideal_power);
   out += line(" mean lift coefficient %s, Reynolds number %s, reduced frequency %s, advance ratio %s",
               opt(f.mean_lift_coefficient).c_str(), opt(f.reynolds_number, "%.0f").c_str(),
               opt(f.reduced_frequency).c_str(), opt(f.advance_ratio).c_str());

@@ -147,6 +147,20 @@ std::vector<SummaryKey> make_keys() {
   add("derived.induced_drag_N", [](const RunSummary& s) -> Value { return s.averages.induced_drag_mean; });
   add("drag.profile_X_N", [](const RunSummary& s) -> Value { return s.averages.profile_drag_mean.x(); });
   add("drag.profile_Z_N", [](const RunSummary& s) -> Value { return s.averages.profile_drag_mean.z(); });
+  auto add_inflow = [&k](const char* path, Value (*f)(const RunSummary&)) {
+    k.push_back({path, f, false, false, true});
+  };
+  add_inflow("inflow.w0_m_s", [](const RunSummary& s) -> Value { return s.inflow ? Value(s.inflow->w0) : std::nullopt; });
+  add_inflow("inflow.velocity_X_m_s", [](const RunSummary& s) -> Value { return s.inflow ? Value(s.inflow->velocity.x()) : std::nullopt; });
+  add_inflow("inflow.velocity_Y_m_s", [](const RunSummary& s) -> Value { return s.inflow ? Value(s.inflow->velocity.y()) : std::nullopt; });
+  add_inflow("inflow.velocity_Z_m_s", [](const RunSummary& s) -> Value { return s.inflow ? Value(s.inflow->velocity.z()) : std::nullopt; });
+  add_inflow("inflow.disc_area_m2", [](const RunSummary& s) -> Value { return s.inflow ? Value(s.inflow->area) : std::nullopt; });
+  add_inflow("inflow.thrust_N", [](const RunSummary& s) -> Value { return s.inflow ? Value(s.inflow->thrust) : std::nullopt; });
+  add_inflow("inflow.induced_power_W", [](const RunSummary& s) -> Value { return s.inflow ? Value(s.inflow->induced_power) : std::nullopt; });
+  add_inflow("inflow.ideal_induced_power_W", [](const RunSummary& s) -> Value { return s.inflow ? Value(s.inflow->ideal_power) : std::nullopt; });
+  add_inflow("inflow.induced_power_fraction", [](const RunSummary& s) -> Value { return s.inflow ? s.inflow->induced_fraction : std::nullopt; });
+  add_inflow("inflow.ideal_power_fraction", [](const RunSummary& s) -> Value { return s.inflow ? s.inflow->ideal_fraction : std::nullopt; });
+  add_inflow("inflow.momentum_residual", [](const RunSummary& s) -> Value { return s.inflow ? Value(s.inflow->momentum_residual) : std::nullopt; });
   add("derived.reverse_flow_fraction", [](const RunSummary& s) -> Value { return s.derived.reverse_flow_fraction; });
   // With a vehicle section (null without one).
   add_vehicle("vehicle.weight_N", [](const RunSummary& s) -> Value {

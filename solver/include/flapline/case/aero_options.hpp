@@ -127,6 +127,21 @@ struct ProfileDrag {
   double coefficient_at(double reynolds) const;
 };
 
+/// Momentum-theory inflow: the far wake's uniform induced velocity w₀, updated from each cycle's
+/// mean force with under-relaxation and added to the wind of every strip.
+enum class InflowModel {
+  none,         ///< no far-wake inflow (default)
+  stroke_disc,  ///< w₀ along the stroke-plane normal, disc ΦR²·mean(λ²) for the pair (|β| ≤ 45°)
+  span_disc     ///< forward flight: w₀ opposite to the mean lift, disc πb²/4 (not lifting_line)
+};
+template <>
+struct EnumNames<InflowModel> {
+  static constexpr std::array<std::pair<InflowModel, std::string_view>, 3> items{
+      {{InflowModel::none, "none"},
+       {InflowModel::stroke_disc, "stroke_disc"},
+       {InflowModel::span_disc, "span_disc"}}};
+};
+
 /// Every aerodynamic option of a run, with defaults.
 struct AeroOptions {
   ModelKind kind = ModelKind::quasi_steady;
@@ -141,6 +156,8 @@ struct AeroOptions {
   SpanCoupling span_coupling = SpanCoupling::both_wings;  ///< lifting_line only
   LineSolve line_solve = LineSolve::structured;           ///< lifting_line only
   ProfileDrag profile_drag;  ///< thin_airfoil law only
+  InflowModel inflow = InflowModel::none;
+  double inflow_relaxation = 0.5;  ///< (0, 1]: share of each cycle's correction of w₀ applied
 };
 
 /// Throws InputError for an option out of range.

@@ -88,6 +88,7 @@ class Model {
   Air air_;
   std::array<WingMotion, 2> motion_;
   bool periodic_ = true;
+  void check_inflow() const;
 };
 
 /// Side and strip number (0-based within its wing) of pair index k.

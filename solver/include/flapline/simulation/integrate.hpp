@@ -31,6 +31,20 @@ LoadSample evaluate(const Model& model, Workspace& ws, double t);
 /// caches only on a fresh or reset Workspace, so reuse one across cases with ws.reset(model).
 RunSummary simulate(const Model& model, Workspace& ws, const RunControl& control = {});
 
+/// Relative change between consecutive cycle means (DESIGN §5): forces against RMS|F|, moments
+/// against RMS|F|·span; one scale for all components.
+double cycle_change(const CycleStats& a, const CycleStats& b, double span);
+
+/// The run loop alone (no inflow iteration): from `initial_state` when given (a state vector of
+/// the right size), else from simulation.start.
+RunSummary simulate_cycles(const Model& model, Workspace& ws, const RunControl& control,
+                           const Eigen::VectorXd* initial_state);
+
+/// A run with momentum inflow (model.inflow, simulation/inflow.cpp): one cycle at a time, the
+/// induced velocity updated from each cycle's mean force with under-relaxation. `ws` is reset
+/// for `model` at the end.
+RunSummary simulate_with_inflow(const Model& model, Workspace& ws, const RunControl& control);
+
 /// The same, but a failed run is a value: status input_error (with error_key) or blew_up and the
 /// message; never throws those two. For studies, which record a failure and go on.
 RunSummary run_case(const Model& model, Workspace& ws, const RunControl& control = {});

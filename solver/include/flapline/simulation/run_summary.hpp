@@ -137,6 +137,21 @@ struct VehicleBalance {
   Wrench steady_residual;
 };
 
+/// Momentum-theory inflow of the last cycle (model.inflow; DESIGN §9).
+struct InflowResult {
+  InflowModel kind = InflowModel::none;
+  double w0 = 0;  ///< m/s, speed of the uniform induced velocity in the last cycle
+  Eigen::Vector3d velocity = Eigen::Vector3d::Zero();  ///< m/s, w₀ as a vector (body axes)
+  double area = 0;    ///< m², the disc
+  double thrust = 0;  ///< N, T = −F̄·n (stroke disc) or the lift normal to the airspeed (span disc)
+  double induced_power = 0;  ///< T·w₀ (W)
+  double ideal_power = 0;    ///< Rankine–Froude T^{3/2}/√(2ρA) (W; 0 for T ≤ 0)
+  /// Both over the mean power given to the air; none when that is not positive.
+  std::optional<double> induced_fraction, ideal_fraction;
+  /// |w₀ − w(T)| / max(w₀, w(T)): how well w₀ satisfies its momentum relation with this T.
+  double momentum_residual = 0;
+};
+
 struct RunSummary {
   RunStatus status = RunStatus::single_cycle;
   std::string message;
@@ -158,6 +173,7 @@ struct RunSummary {
   CycleStats averages;  ///< of the last cycle
   DerivedQuantities derived;
   std::optional<VehicleBalance> vehicle;  ///< with a vehicle section only
+  std::optional<InflowResult> inflow;     ///< with model.inflow only
   std::vector<HistoryRow> history;
   std::vector<SpanwiseRow> spanwise;
 

@@ -23,6 +23,7 @@ struct SummaryKey {
   std::optional<double> (*value)(const RunSummary&);
   bool integer = false;  ///< a count (written without a fraction in JSON)
   bool vehicle = false;  ///< exists only with a vehicle section (omitted from summary.json without)
+  bool inflow = false;   ///< exists only with model.inflow (omitted from summary.json without)
 };
 
 /// Every scalar of summary.json, in the order it is written.
