@@ -13,7 +13,8 @@ using namespace flapline;
 namespace fs = std::filesystem;
 
 TEST_CASE("flapline run writes history.csv, summary.json and spanwise.csv for every demo") {
-  for (const char* demo : {"hover_insect", "forward_bat", "rolling_bat"}) {
+  for (const char* demo : {"hover_insect", "forward_bat", "rolling_bat", "sizing_insect",
+                           "hover_inflow", "cruise_bat"}) {
     CAPTURE(demo);
     const fs::path out = test::fresh_folder(std::string("cli_") + demo);
     std::string log;
@@ -32,6 +33,10 @@ TEST_CASE("flapline run writes history.csv, summary.json and spanwise.csv for ev
     CHECK(j["derived"].contains("reverse_flow_fraction"));
     CHECK(j["derived"].contains("stroke_peak_to_peak_deg"));
     CHECK(j["version"] == kVersion);
+    CHECK(j["drive"]["pair"]["power_storage_none_W"].get<double>() >=
+          j["drive"]["pair"]["power_storage_perfect_W"].get<double>());
+    CHECK(j.contains("inflow") == (std::string(demo).find("inflow") != std::string::npos ||
+                                   std::string(demo) == "cruise_bat"));
     // No temporary file survives.
     for (const auto& e : fs::directory_iterator(out))
       CHECK(e.path().filename().string().find(".tmp-") == std::string::npos);

@@ -16,7 +16,7 @@ import flapline
 
 SOURCE = os.environ["FLAPLINE_SOURCE_DIR"]
 CLI = os.environ["FLAPLINE_CLI"]
-DEMOS = ["hover_insect", "forward_bat", "rolling_bat"]
+DEMOS = ["hover_insect", "forward_bat", "rolling_bat", "sizing_insect", "hover_inflow"]
 MODELS = ["quasi_steady", "wagner", "lifting_line"]
 
 
@@ -52,6 +52,11 @@ def test_run_equals_the_cli(tmp_path, demo, model):
         tol = 1e-6 if name == "phase" else 0.0
         assert np.allclose(r.history[name], cli, rtol=1e-8, atol=tol + 1e-300), name
     assert r.spanwise["lift_per_span_N_m"].shape == r.spanwise["Z_per_span_N_m"].shape
+    with open(tmp_path / "out" / "drive.csv") as f:
+        drive_rows = list(csv.reader(f))
+    assert list(r.drive) == drive_rows[0]
+    power = np.array([float(row[drive_rows[0].index("pair_power_W")]) for row in drive_rows[1:]])
+    assert np.allclose(r.drive["pair_power_W"], power, rtol=1e-8, atol=1e-300)
 
 
 def test_dict_config_equals_file_config(tmp_path):

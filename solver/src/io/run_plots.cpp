@@ -83,6 +83,36 @@ std::map<std::string, std::string> run_plots(const RunSummary& s, const Model& m
       history_series(rows, "actuator", [](const HistoryRow& r) { return r.loads.power_actuator; }, 2, true)};
   merge(files, render(power, "power"));
 
+  // Drive: the generalised forces of the angle joints and the power of each wing.
+  Plot torque{cycle_title(s, "Joint torques"), phase_label, "torque (N m)", "",
+              "what each joint's drive supplies (aerodynamic + inertial" +
+                  std::string(model.vehicle() ? " + the wing's weight" : "") +
+                  "); solid: right wing, dashed: left wing",
+              {}};
+  const char* joint_name[3] = {"stroke", "deviation", "pitch"};
+  const char* wing_name[2] = {"right", "left"};
+  for (std::size_t w = 0; w < 2; ++w)
+    for (std::size_t j = 0; j < 3; ++j)
+      torque.series.push_back(history_series(
+          rows, std::string(wing_name[w]) + " " + joint_name[j],
+          [w, j](const HistoryRow& r) { return r.loads.drive[w].torque[j]; },
+          static_cast<int>(j) + 1, w == 1));
+  torque.key = "outside right top";
+  merge(files, render(torque, "drive_torque"));
+
+  Plot drive_power{cycle_title(s, "Drive power"), phase_label, "power (W)", "",
+                   "each wing's drive (sum over its joints) and its inertial part; solid: right, "
+                   "dashed: left",
+                   {}};
+  for (std::size_t w = 0; w < 2; ++w) {
+    drive_power.series.push_back(history_series(rows, std::string(wing_name[w]) + " wing",
+        [w](const HistoryRow& r) { return r.loads.drive[w].power; }, 1, w == 1));
+    drive_power.series.push_back(history_series(rows, std::string(wing_name[w]) + " inertial part",
+        [w](const HistoryRow& r) { return r.loads.drive[w].power_inertial; }, 2, w == 1));
+  }
+  drive_power.key = "outside right top";
+  merge(files, render(drive_power, "drive_power"));
+
   Plot angles{cycle_title(s, "Gait"), phase_label, "angle (deg)", "span ratio (-)",
               "stroke: + forward; deviation: + tip up; pitch: + leading edge up (relative to the "
               "stroke plane)", {}};

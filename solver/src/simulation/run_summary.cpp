@@ -1,5 +1,6 @@
 #include "flapline/simulation/run_summary.hpp"
 
+#include <cmath>
 #include <cstdarg>
 #include <cstdio>
 
@@ -57,6 +58,10 @@ std::string footer(const RunSummary& s) {
   return out;
 }
 
+/// 0 for a value below 1e-12 of its scale: rounding noise of a quantity zero by symmetry or by
+/// construction (an aerodynamic load along the span, the mean inertial power of a periodic gait).
+double shown(double v, double scale) { return std::abs(v) <= 1e-12 * std::abs(scale) ? 0.0 : v; }
+
 /// The drive section of the full report: per wing and joint, RMS and peak torque, power bounds.
 std::string drive_lines(const RunSummary& s) {
   const CycleStats& a = s.averages;
@@ -65,7 +70,7 @@ std::string drive_lines(const RunSummary& s) {
   out += line(" pair: mechanical power %.5g W (perfect storage), %.5g W (no storage), peak %.5g W; "
               "inertial power mean %.3g W",
               a.power_mechanical_storage_perfect, a.power_mechanical_storage_none,
-              a.power_mechanical_peak, a.power_inertial_mean);
+              a.power_mechanical_peak, shown(a.power_inertial_mean, a.power_mechanical_peak));
   out += line(" lift / drive power %s N/W (perfect storage), %s N/W (no storage)",
               opt(s.derived.lift_per_power_storage_perfect).c_str(),
               opt(s.derived.lift_per_power_storage_none).c_str());
@@ -80,9 +85,10 @@ std::string drive_lines(const RunSummary& s) {
       const JointStats& q = d.joint[j];
       out += line("   %-10s torque RMS %.4g %s (aero %.4g, inertial %.4g), peak %.4g %s; power "
                   "%.4g W / %.4g W, peak %.4g W",
-                  names[j], q.torque_rms, units[j], q.torque_aero_rms, q.torque_inertial_rms,
-                  q.torque_peak, units[j], q.power_storage_perfect, q.power_storage_none,
-                  q.power_peak);
+                  names[j], q.torque_rms, units[j], shown(q.torque_aero_rms, q.torque_peak),
+                  shown(q.torque_inertial_rms, q.torque_peak), q.torque_peak, units[j],
+                  shown(q.power_storage_perfect, q.power_peak),
+                  shown(q.power_storage_none, q.power_peak), q.power_peak);
     }
   }
   return out;
