@@ -331,3 +331,30 @@ TEST_CASE("in the quasi-steady model profile drag lowers the mean X by exactly i
   CHECK(std::abs(b.averages.mean.force.z() - a.averages.mean.force.z() -
                  b.averages.profile_drag_mean.z()) <= 1e-12 * a.averages.force_rms);
 }
+
+TEST_CASE("with a vehicle attitude the wing's weight loads the joints: m g R/2 on the deviation") {
+  // analytic: a uniform plate held level (stroke, deviation and pitch constant, body level and at
+  // rest) carries its weight about the deviation axis, τ = m g r̄ with r̄ = R/2 the centre of mass
+  // (uniform strips); the stroke axis is vertical, so it carries none. Standard gravity
+  // 9.80665 m/s² (CGPM 1901).
+  ModelSpec s = plate(0.0, 9, StripSpacing::cosine);
+  s.gait.right.stroke = s.gait.left.stroke = harmonic(0.0, 0.0, 0.0);
+  s.gait.right.pitch = s.gait.left.pitch = harmonic(0.0, 5.0 * kDegree, 0.0);  // pitch moves
+  VehicleSpec v;
+  v.mass = 0.05;
+  v.ixx = v.iyy = v.izz = 1e-5;
+  s.vehicle = v;
+  const RunSummary with = simulate(Model(s));
+  const double expected = 0.002 * kStandardGravity * 0.1 / 2.0;
+  for (const HistoryRow& h : with.history)
+    for (const WingDriveSample& d : h.loads.drive) {
+      CHECK(test::close(d.torque_gravity[1], expected, 1e-12));
+      CHECK(std::abs(d.torque_gravity[0]) <= 1e-12 * expected);
+      CHECK(test::close(d.torque_gravity[4], -0.002 * kStandardGravity, 1e-12));  // plunge holds it up
+      CHECK(test::close(d.torque[1], d.torque_aero[1] + d.torque_inertial[1] + d.torque_gravity[1], 1e-12));
+    }
+  s.vehicle.reset();  // without a vehicle there is no attitude: no gravity part
+  const RunSummary without = simulate(Model(s));
+  for (const HistoryRow& h : without.history)
+    for (const WingDriveSample& d : h.loads.drive) CHECK(d.torque_gravity[1] == 0.0);
+}

@@ -42,7 +42,11 @@ const std::vector<std::string>& history_columns() {
       "left_deviation_deg", "left_pitch_deg", "left_span_ratio", "inertial_X_N",
       "inertial_Y_N", "inertial_Z_N", "inertial_L_roll_Nm", "inertial_M_pitch_Nm",
       "inertial_N_yaw_Nm", "total_X_N", "total_Y_N", "total_Z_N", "total_L_roll_Nm",
-      "total_M_pitch_Nm", "total_N_yaw_Nm", "power_mechanical_W", "power_inertial_W"};
+      "total_M_pitch_Nm", "total_N_yaw_Nm", "power_mechanical_W", "power_inertial_W",
+      "right_inertial_X_N", "right_inertial_Y_N", "right_inertial_Z_N",
+      "right_inertial_L_roll_Nm", "right_inertial_M_pitch_Nm", "right_inertial_N_yaw_Nm",
+      "left_inertial_X_N", "left_inertial_Y_N", "left_inertial_Z_N", "left_inertial_L_roll_Nm",
+      "left_inertial_M_pitch_Nm", "left_inertial_N_yaw_Nm"};
   return c;
 }
 
@@ -82,6 +86,10 @@ std::vector<std::vector<double>> history_table(const RunSummary& s) {
     for (int i = 0; i < 3; ++i) put(r.loads.total.moment(i) + in.moment(i));
     put(r.loads.power_mechanical);
     put(r.loads.power_inertial);
+    for (const WingDriveSample& d : r.loads.drive) {
+      for (int i = 0; i < 3; ++i) put(d.inertial.force(i));
+      for (int i = 0; i < 3; ++i) put(d.inertial.moment(i));
+    }
   }
   return t;
 }
