@@ -71,6 +71,18 @@ TEST_CASE("slow flight and climb: the stroke disc's w0 satisfies Glauert's relat
   }
 }
 
+TEST_CASE("descent through the stroke disc is warned about (vortex-ring state)") {
+  // Momentum theory fails when the stream meets the disc against the induced flow (common
+  // practice; e.g. Glauert 1926 on the windmill brake and vortex-ring states).
+  ModelSpec s = samples::hover_insect();
+  s.flight.velocity = {0.3, 0.0, 0.4};  // sinking: the air comes up through the disc
+  s.aero.inflow = InflowModel::stroke_disc;
+  const RunSummary r = simulate(Model(s));
+  bool warned = false;
+  for (const std::string& w : r.warnings) warned = warned || w.find("vortex-ring") != std::string::npos;
+  CHECK(warned);
+}
+
 TEST_CASE("span disc at high speed: induced drag tends to Prandtl's elliptic-wing value") {
   // analytic: w0 = L/(2ρA√(V² + w0²)) with A = πb²/4 gives L·w0/V → L²/(½ρV²πb²) (Prandtl 1918),
   // to within (w0/V)²/2.

@@ -192,3 +192,30 @@ TEST_CASE("run_case turns a failed run into a status") {
   CHECK(g.status == RunStatus::converged);
   CHECK(has_results(g.status));
 }
+
+namespace {
+bool warns(const RunSummary& r, const std::string& text) {
+  for (const std::string& w : r.warnings)
+    if (w.find(text) != std::string::npos) return true;
+  return false;
+}
+}  // namespace
+
+TEST_CASE("gaits that are probably not meant are warned about") {
+  // Wings that cross: a 200° stroke swings each wing through the body's plane of symmetry.
+  ModelSpec s = samples::hover_insect();
+  s.gait.right.stroke.amplitude = s.gait.left.stroke.amplitude = 100.0 * kDegree;
+  CHECK(warns(simulate(Model(s)), "cross the body's plane of symmetry"));
+  CHECK_FALSE(warns(simulate(Model(samples::hover_insect())), "cross"));
+  // A constant stroke in still air: nothing flaps.
+  s = samples::hover_insect();
+  s.gait.right.stroke.amplitude = s.gait.left.stroke.amplitude = 0.0;
+  CHECK(warns(simulate(Model(s)), "the stroke is constant"));
+  // Pitch half a cycle off: the wings lead with the trailing edge; the hint names the fix.
+  s = samples::hover_insect();
+  s.gait.right.pitch.phase = s.gait.left.pitch.phase = 90.0 * kDegree;
+  const RunSummary flipped = simulate(Model(s));
+  CHECK(flipped.derived.reverse_flow_fraction > 0.5);
+  CHECK(warns(flipped, "add"));
+  CHECK(warns(flipped, "gait.pitch.phase"));
+}

@@ -30,23 +30,33 @@ std::string opt(const std::optional<double>& v, const char* fmt = "%.4g") {
   return buf;
 }
 
+/// 0 for a value below 1e-12 of its scale: rounding noise of a quantity zero by symmetry or by
+/// construction (the side force of a symmetric gait, an aerodynamic load along the span, the mean
+/// inertial power of a periodic gait); never −0.
+double shown(double v, double scale) {
+  return std::abs(v) <= 1e-12 * std::abs(scale) ? 0.0 : v + 0.0;
+}
+
 std::string header(const RunSummary& s) {
   std::string out;
   out += line("flapline run: %s", s.title.empty() ? "(untitled)" : s.title.c_str());
   out += line("model %s, %d strips per wing, %d steps and %d samples per cycle at %.4g Hz",
               s.model_label.c_str(), s.strips_per_wing, s.steps_per_cycle, s.samples_per_cycle,
               s.frequency);
-  out += line("status: %s (%s; periodicity residual %.2e)", std::string(to_string(s.status)).c_str(),
-              s.message.c_str(), s.periodicity_residual);
+  out += line("status: %s (%s; cycle means changed by %.2e of the force scale in the last cycle)",
+              std::string(to_string(s.status)).c_str(), s.message.c_str(), s.periodicity_residual);
   return out;
 }
 
-std::string wrench_lines(const Wrench& w, const char* indent) {
+/// Forces below 1e-12 of the run's force scale (RMS |F|) and moments below 1e-12 of that times
+/// the span print as 0.
+std::string wrench_lines(const RunSummary& s, const Wrench& w, const char* indent) {
+  const double f = s.averages.force_rms, m = f * s.derived.span;
   std::string out;
-  out += line("%slift %+.5g N   thrust %+.5g N   side force %+.5g N", indent, -w.force.z(),
-              w.force.x(), w.force.y());
-  out += line("%sroll L %+.5g N m   pitch M %+.5g N m   yaw N %+.5g N m", indent, w.moment.x(),
-              w.moment.y(), w.moment.z());
+  out += line("%slift %+.5g N   thrust %+.5g N   side force %+.5g N", indent, shown(-w.force.z(), f),
+              shown(w.force.x(), f), shown(w.force.y(), f));
+  out += line("%sroll L %+.5g N m   pitch M %+.5g N m   yaw N %+.5g N m", indent,
+              shown(w.moment.x(), m), shown(w.moment.y(), m), shown(w.moment.z(), m));
   return out;
 }
 
@@ -57,10 +67,6 @@ std::string footer(const RunSummary& s) {
   out += "\n";
   return out;
 }
-
-/// 0 for a value below 1e-12 of its scale: rounding noise of a quantity zero by symmetry or by
-/// construction (an aerodynamic load along the span, the mean inertial power of a periodic gait).
-double shown(double v, double scale) { return std::abs(v) <= 1e-12 * std::abs(scale) ? 0.0 : v; }
 
 /// The drive section of the full report: per wing and joint, RMS and peak torque, power bounds.
 std::string drive_lines(const RunSummary& s) {
@@ -99,7 +105,7 @@ std::string drive_lines(const RunSummary& s) {
 std::string RunSummary::brief_report() const {
   std::string out = header(*this);
   out += "cycle means, body axes (x forward, y right, z down; lift = -Z, thrust = X):\n";
-  out += wrench_lines(averages.mean, "  ");
+  out += wrench_lines(*this, averages.mean, "  ");
   out += line("  power to the air: mean %.5g W, peak %.5g W; actuator mean %.5g W",
               averages.power_air_mean, averages.power_air_peak, averages.power_actuator_mean);
   if (averages.power_mechanical_storage_none != 0.0)
@@ -119,7 +125,8 @@ std::string RunSummary::brief_report() const {
 
 std::string RunSummary::full_report() const {
   std::string out = header(*this);
-  out += line("cycles run %d; lag-state periodicity residual %.2e", cycles, state_residual);
+  out += line("cycles run %d; lag states changed by %.2e (relative) over the last cycle", cycles,
+              state_residual);
   out += line("air: density %.5g kg/m^3, kinematic viscosity %.4g m^2/s", air_density,
               kinematic_viscosity);
   const DerivedQuantities& f = derived;
@@ -131,9 +138,9 @@ std::string RunSummary::full_report() const {
               f.stroke_peak_to_peak / kDegree, f.airspeed);
   out += line("reference speed U_ref %.5g m/s (RMS at r2 R)", f.reference_speed);
   out += "cycle means, body axes (x forward, y right, z down; lift = -Z, thrust = X):\n";
-  out += " pair:\n" + wrench_lines(averages.mean, "   ");
-  out += " right wing:\n" + wrench_lines(averages.wing_mean[0], "   ");
-  out += " left wing:\n" + wrench_lines(averages.wing_mean[1], "   ");
+  out += " pair:\n" + wrench_lines(*this, averages.mean, "   ");
+  out += " right wing:\n" + wrench_lines(*this, averages.wing_mean[0], "   ");
+  out += " left wing:\n" + wrench_lines(*this, averages.wing_mean[1], "   ");
   out += line(" power to the air: mean %.5g W, peak %.5g W, mean of positive part %.5g W",
               averages.power_air_mean, averages.power_air_peak, averages.power_air_mean_positive);
   out += line(" actuator power:   mean %.5g W, peak %.5g W, mean of positive part %.5g W",

@@ -96,6 +96,47 @@ void derive_quantities(const Model& model, Workspace& ws, int last_cycle, RunSum
   d.high_alpha_fraction = static_cast<double>(high_alpha) / static_cast<double>(strip_samples);
 }
 
+/// Gaits that are probably not meant: wings that never flap in still air, wings that cross.
+void kinematic_warnings(const Model& model, RunSummary& out) {
+  const FlightSpec& f = model.flight();
+  bool flaps = false;
+  for (int s = 0; s < 2; ++s) {
+    const Waveform& w = model.motion(static_cast<Side>(s)).stroke;
+    flaps = flaps || w.maximum() - w.minimum() > 1e-9;
+  }
+  if (!flaps && (f.velocity - f.wind).norm() == 0.0 && f.rates.norm() == 0.0)
+    out.warnings.push_back("the stroke is constant and the body meets no stream: the wings do "
+                           "not flap (check gait.stroke: an amplitude of 0?)");
+  // The right wing's outline (leading and trailing edges at root and tip) must stay on its own
+  // side of the body's plane of symmetry, where the left wing is its mirror image.
+  const Strips& st = model.strips();
+  const Eigen::Index last = st.size();
+  constexpr int samples = 256;
+  double worst = 0.0, worst_phase = 0.0;
+  for (int s = 0; s < 2; ++s) {
+    const WingMotion& m = model.motion(static_cast<Side>(s));
+    for (int j = 0; j < samples; ++j) {
+      const double phase = static_cast<double>(j) / samples;
+      const WingPose p = wing_pose(m, phase * model.period());
+      for (const Eigen::Index e : {Eigen::Index{0}, last}) {
+        const double r = st.edge_radius(e), c = st.edge_chord(e), le = st.edge_leading_edge(e);
+        const Eigen::Vector3d ec =
+            std::cos(st.edge_twist(e)) * p.chord_axis + std::sin(st.edge_twist(e)) * p.normal_axis;
+        for (const double l : {le, le - c}) {
+          const double y = (p.hinge + p.span_ratio * r * p.span_axis + l * ec).y();
+          if (y < worst) worst = y, worst_phase = phase;
+        }
+      }
+    }
+  }
+  if (worst < -1e-9 * model.planform().span())
+    out.warnings.push_back("the wings cross the body's plane of symmetry (by " +
+                           format_number(-worst * 1e3) + " mm at phase " +
+                           format_number(worst_phase) +
+                           "): the two wings would collide; reduce the stroke or deviation, or "
+                           "move the hinges (wing.hinge) apart");
+}
+
 void status_and_warnings(const Model& model, const CycleOutcome& o, RunSummary& out) {
   const SimulationOptions& opt = model.simulation();
   switch (out.status) {
@@ -117,10 +158,17 @@ void status_and_warnings(const Model& model, const CycleOutcome& o, RunSummary& 
       break;
   }
   const DerivedQuantities& d = out.derived;
-  if (d.reverse_flow_fraction > 0.05)
+  if (d.reverse_flow_fraction > 0.5)
+    out.warnings.push_back(percent(d.reverse_flow_fraction) +
+                           " of strip samples see reverse flow (U_t < 0): the wings mostly lead "
+                           "with the trailing edge, which usually means the pitch waveform is half "
+                           "a cycle off — try adding 180 to gait.pitch.phase, or 180 − mean for "
+                           "its mean");
+  else if (d.reverse_flow_fraction > 0.05)
     out.warnings.push_back(percent(d.reverse_flow_fraction) +
                            " of strip samples see reverse flow (U_t < 0); the attached-flow "
                            "formulas are kept there (a model limit)");
+  kinematic_warnings(model, out);
   const AeroOptions& ao = model.aero_options();
   if (d.high_alpha_fraction > 0.05 && ao.suction_recovery > 0.0 &&
       !(ao.kind == ModelKind::quasi_steady && ao.law == CoefficientLaw::revolving_fit))
