@@ -89,7 +89,8 @@ py::tuple run(const std::string& text, const std::string& name, const std::strin
     }
     py::dict history;
     const std::vector<std::vector<double>> t = io::history_table(s);
-    for (std::size_t k = 0; k < t.size(); ++k) history[py::str(io::history_columns()[k])] = array(t[k]);
+    for (std::size_t k = 0; k < t.size(); ++k)
+      history[py::str(io::history_columns()[k])] = array(t[k]);
     py::dict span;
     std::vector<bool> mean;
     std::vector<double> phase;
@@ -107,7 +108,8 @@ py::tuple run(const std::string& text, const std::string& name, const std::strin
       span[py::str(io::spanwise_numeric_columns()[k])] = array(st[k]);
     py::dict drive;
     const std::vector<std::vector<double>> dt = io::drive_table(s);
-    for (std::size_t k = 0; k < dt.size(); ++k) drive[py::str(io::drive_columns()[k])] = array(dt[k]);
+    for (std::size_t k = 0; k < dt.size(); ++k)
+      drive[py::str(io::drive_columns()[k])] = array(dt[k]);
     return py::make_tuple(summary, history, span, drive);
   });
 }
@@ -198,16 +200,19 @@ std::string trim(const std::string& text, const std::string& name, const std::st
     }
     std::vector<studies::Target> t;
     for (const auto& [q, v] : targets) {
-      if (!find_summary_key(q)) throw InputError(q, "(quantity)", "unknown quantity: a key path of summary.json");
+      if (!find_summary_key(q))
+        throw InputError(q, "(quantity)", "unknown quantity: a key path of summary.json");
       t.push_back({q, v});
     }
-    if (balance != t.empty()) throw InputError("targets", "", "give targets or balance=True, not both");
+    if (balance != t.empty())
+      throw InputError("targets", "", "give targets or balance=True, not both");
     studies::TrimOptions o;
     o.tolerance = tolerance;
     o.runner.threads = threads;
     o.runner.stop = [&interrupt] { return interrupt.check(); };
     const studies::TrimResult r = studies::trim(params, t, {}, io::case_builders(loader), o);
-    return io::trim_json(r, params, tolerance, "simulation.start periodic, simulation.tolerance 1e-9");
+    return io::trim_json(r, params, tolerance,
+                         "simulation.start periodic, simulation.tolerance 1e-9");
   });
 }
 
@@ -225,8 +230,8 @@ std::string derivatives(const std::string& text, const std::string& name,
     studies::RunnerOptions o;
     o.threads = threads;
     o.stop = [&interrupt] { return interrupt.check(); };
-    return io::derivatives_json(
-        studies::derivatives(params, studies::derivative_quantities(), {}, io::case_builders(loader), o));
+    return io::derivatives_json(studies::derivatives(params, studies::derivative_quantities(), {},
+                                                     io::case_builders(loader), o));
   });
 }
 
@@ -244,7 +249,8 @@ std::string modes(const std::string& text, const std::string& name, const std::s
     o.threads = threads;
     o.stop = [&interrupt] { return interrupt.check(); };
     const std::vector<studies::Parameter> controls = parameters(loader, keys);
-    const studies::ModesStudy m = studies::modes_study(base, controls, io::case_builders(loader), o);
+    const studies::ModesStudy m =
+        studies::modes_study(base, controls, io::case_builders(loader), o);
     std::vector<std::string> units;
     for (const auto& p : controls) units.push_back(io::parameter_unit(p));
     return io::modes_json(m.linear, keys, units, m.modes, m.warnings);

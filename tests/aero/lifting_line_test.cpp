@@ -126,8 +126,8 @@ TEST_CASE("rectangular and tapered wings against Glauert's series solution") {
         const double e = s.lift_coefficient * s.lift_coefficient / (kPi * ar * s.drag_coefficient);
         const double err = std::abs(s.lift_slope / g.lift_slope - 1);
         MESSAGE(to_string(shape) << " AR " << ar << ", " << n << " strips per wing: lift slope "
-                                 << s.lift_slope << " vs " << g.lift_slope << ", e " << e
-                                 << " vs " << g.span_efficiency());
+                                 << s.lift_slope << " vs " << g.lift_slope << ", e " << e << " vs "
+                                 << g.span_efficiency());
         if (n >= 20) {
           CHECK(err < 1e-3);
           CHECK(std::abs(e - g.span_efficiency()) < 1e-3);
@@ -178,9 +178,8 @@ TEST_CASE("no span coupling is the wagner model; coupling fades as the aspect ra
     const double strip = simulate(Model(h)).mean_lift();
     h.aero.kind = ModelKind::lifting_line;
     const double coupled = simulate(Model(h)).mean_lift();
-    MESSAGE("hovering wing, pair aspect ratio " << 6.25 * stretch
-                                                << ": lifting line / wagner mean lift = "
-                                                << coupled / strip);
+    MESSAGE("hovering wing, pair aspect ratio "
+            << 6.25 * stretch << ": lifting line / wagner mean lift = " << coupled / strip);
     CHECK(coupled < strip);
   }
 }
@@ -237,7 +236,8 @@ TEST_CASE("symmetric flapping: zero Y, L, N; both-wing coupling equals the mirro
     for (Eigen::Index j = 0; j < n; ++j) {
       // image of right strip j: A' = M·B, B' = M·A (the sense d = e_c × e_n flips with M)
       const Eigen::Vector3d a = mirror(g.end.col(j)), b = mirror(g.start.col(j));
-      const Eigen::Vector3d ua = mirror(g.trailing_end.col(j)), ub = mirror(g.trailing_start.col(j));
+      const Eigen::Vector3d ua = mirror(g.trailing_end.col(j)),
+                            ub = mirror(g.trailing_start.col(j));
       const Eigen::Vector3d x = g.control.col(i);
       const double core = g.core(j);
       const Eigen::Vector3d v = segment_velocity_4pi(a, b, x, core) +
@@ -259,7 +259,8 @@ TEST_CASE("frozen-time state space reproduces the model's derivative and circula
   CHECK(ss.A.rows() == 2 * n2);
   CHECK(ss.B.cols() == n2);
   Eigen::VectorXd x = Eigen::VectorXd::Zero(2 * n2);
-  for (Eigen::Index k = 0; k < x.size(); ++k) x(k) = 0.3 * std::sin(1.7 * static_cast<double>(k) + 0.2);  // a state
+  for (Eigen::Index k = 0; k < x.size(); ++k)
+    x(k) = 0.3 * std::sin(1.7 * static_cast<double>(k) + 0.2);  // a state
   Eigen::VectorXd dx(2 * n2);
   attach_aero(model, ws).derivative(model, ws, t, x, dx);
   update_speeds(model, ws, t);

@@ -12,7 +12,9 @@ using namespace flapline;
 
 namespace {
 // Right wing's mean force of a steady revolving wing.
-Eigen::Vector3d revolving_force(ModelSpec spec) { return simulate(Model(std::move(spec))).averages.wing_mean[0].force; }
+Eigen::Vector3d revolving_force(ModelSpec spec) {
+  return simulate(Model(std::move(spec))).averages.wing_mean[0].force;
+}
 }  // namespace
 
 TEST_CASE("revolving wing: lift = ½ρ C_L(α) Ω² ∫c r² dr for every coefficient law") {

@@ -86,7 +86,8 @@ TEST_CASE("step in angle at constant speed follows the Wagner fit and the exact 
       const double t = j * dt, sred = kSpeed * t / kSemichord;
       evaluate(model, ws, t);
       const double ratio = ws.loads.circulation(0) / steady;
-      worst_fit = std::max(worst_fit, std::abs(ratio - ref::wagner_fit(sred, c.a1, c.a2, c.b1, c.b2)));
+      worst_fit =
+          std::max(worst_fit, std::abs(ratio - ref::wagner_fit(sred, c.a1, c.a2, c.b1, c.b2)));
       if (j % 20 == 0) worst_exact = std::max(worst_exact, std::abs(ratio - ref::wagner(sred)));
       advance(model, ws, t, dt);
     }
@@ -182,8 +183,9 @@ TEST_CASE("stroke reversal passes without spikes in the lag states (hover)") {
     const double lo = *std::min_element(x->begin(), x->end());
     const double hi = *std::max_element(x->begin(), x->end());
     double jump = 0.0;
-    for (std::size_t j = 1; j < x->size(); ++j) jump = std::max(jump, std::abs((*x)[j] - (*x)[j - 1]));
-    CHECK(jump < 0.05 * (hi - lo));      // smooth at 400 steps per cycle: no spike
+    for (std::size_t j = 1; j < x->size(); ++j)
+      jump = std::max(jump, std::abs((*x)[j] - (*x)[j - 1]));
+    CHECK(jump < 0.05 * (hi - lo));  // smooth at 400 steps per cycle: no spike
     CHECK(std::max(std::abs(lo), std::abs(hi)) <= 0.335 * w_max * 1.0001);  // |x_k| <= A_k max|w_¾|
   }
 }
@@ -255,7 +257,8 @@ TEST_CASE("reverse_flow no_suction drops the suction only where U_t < 0") {
   alt.aero.reverse_flow = ReverseFlow::no_suction;
   ModelSpec none = base;
   none.aero.suction_recovery = 0.0;
-  const RunSummary rb = simulate(Model(base)), ra = simulate(Model(alt)), rn = simulate(Model(none));
+  const RunSummary rb = simulate(Model(base)), ra = simulate(Model(alt)),
+                   rn = simulate(Model(none));
   CHECK(rb.derived.reverse_flow_fraction == doctest::Approx(0.5));
   const double f = rb.averages.force_rms;
   CHECK((ra.averages.wing_mean[0].force - rb.averages.wing_mean[0].force).norm() <= 1e-12 * f);

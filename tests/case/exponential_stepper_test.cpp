@@ -3,8 +3,8 @@
 #include <doctest/doctest.h>
 
 #include <Eigen/Eigenvalues>
-#include <complex>
 #include <cmath>
+#include <complex>
 
 #include "flapline/case/exponential_stepper.hpp"
 #include "flapline/common/errors.hpp"
@@ -24,7 +24,8 @@ double contour_phi(int k, double x) {
   const int m = 64;
   std::complex<double> sum = 0.0;
   for (int j = 0; j < m; ++j) {
-    const std::complex<double> z = x + std::exp(std::complex<double>(0.0, kPi * (j + 0.5) / (m / 2.0)));
+    const std::complex<double> z =
+        x + std::exp(std::complex<double>(0.0, kPi * (j + 0.5) / (m / 2.0)));
     const std::complex<double> e = std::exp(z);
     std::complex<double> v;
     if (k == 1) v = (e - 1.0) / z;
@@ -72,7 +73,8 @@ TEST_CASE("the stepper's weights for all strips equal etd_weights strip by strip
   const WagnerCoefficients w = wagner_coefficients(WagnerFit::rt_jones);
   const Eigen::ArrayXd kappa = (Eigen::ArrayXd(6) << 0.0, -0.1, -0.5, -0.9, -1.5, -3.0).finished();
   // Rates spanning both branches (|z| from 1e-7 to 300 across the two modes).
-  const Eigen::ArrayXd rate = (Eigen::ArrayXd(6) << 1e-3, 40.0, 160.0, 330.0, 2000.0, 3e5).finished();
+  const Eigen::ArrayXd rate =
+      (Eigen::ArrayXd(6) << 1e-3, 40.0, 160.0, 330.0, 2000.0, 3e5).finished();
   ExponentialStepper st;
   st.resize(6, 0);
   st.set_linear_part(w, kappa);
@@ -135,7 +137,9 @@ TEST_CASE("one strip, constant forcing, step x rate = 50: the exact equilibrium"
   }
 }
 
-TEST_CASE("cosine strips on the hover demo at 400 steps: the exponential integrator matches RK4 at many steps") {
+TEST_CASE(
+    "cosine strips on the hover demo at 400 steps: the exponential integrator matches RK4 at many "
+    "steps") {
   // The beta planform's chord tends to zero at the tip, so cosine strips put a very fast lag state
   // there: RK4 needs about 1000 steps per cycle for the lifting line, the exponential scheme runs
   // at the default 400 and agrees with RK4 at 2000 steps to 1e-6 (a 4th-order error estimate).

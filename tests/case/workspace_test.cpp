@@ -50,8 +50,8 @@ TEST_CASE("a reused Workspace gives the results of a fresh one, whatever ran bef
   std::vector<ModelSpec> cases;
   for (ModelKind kind : {ModelKind::lifting_line, ModelKind::wagner, ModelKind::quasi_steady}) {
     cases.push_back(with(samples::hover_insect(), kind, 8));
-    cases.push_back(with(samples::forward_bat(), kind, 8));   // same size, other geometry
-    cases.push_back(with(samples::rolling_bat(), kind, 6));   // other size
+    cases.push_back(with(samples::forward_bat(), kind, 8));  // same size, other geometry
+    cases.push_back(with(samples::rolling_bat(), kind, 6));  // other size
   }
   cases.push_back(with(samples::forward_bat(), ModelKind::lifting_line, 8));  // after others
   std::vector<Model> models;

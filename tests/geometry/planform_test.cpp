@@ -83,7 +83,8 @@ TEST_CASE("beta planform reproduces its r̂₁ and r̂₂ (method of moments, El
   const Planform ell(s);
   CHECK(ell.beta_p() == doctest::Approx(1.4892).epsilon(2e-4));
   CHECK(ell.beta_q() == doctest::Approx(1.4892).epsilon(2e-4));
-  CHECK(Planform::max_second_moment_radius(0.5) == doctest::Approx(1 / std::sqrt(3.0)).epsilon(1e-12));
+  CHECK(Planform::max_second_moment_radius(0.5) ==
+        doctest::Approx(1 / std::sqrt(3.0)).epsilon(1e-12));
 }
 
 TEST_CASE("table planform: linear chord and pitch axis from the leading-edge column") {

@@ -18,10 +18,10 @@ TEST_CASE("flapline run writes history.csv, summary.json and spanwise.csv for ev
     CAPTURE(demo);
     const fs::path out = test::fresh_folder(std::string("cli_") + demo);
     std::string log;
-    const int code = test::run_cli(
-        "run \"" + test::source_path(std::string("configs/") + demo + ".yaml") + "\" -o \"" +
-            out.string() + "\"",
-        log);
+    const int code =
+        test::run_cli("run \"" + test::source_path(std::string("configs/") + demo + ".yaml") +
+                          "\" -o \"" + out.string() + "\"",
+                      log);
     CHECK(code == 0);
     CHECK(log.find("Cautions:") != std::string::npos);  // the run summary carries the cautions
     for (const char* f : {"history.csv", "summary.json", "spanwise.csv", "drive.csv"})
@@ -69,7 +69,7 @@ TEST_CASE("--state-space T writes the frozen-time matrices of a lag model") {
                       log) == 0);
   std::ifstream js(out / "state_space.json");
   const nlohmann::json j = nlohmann::json::parse(js);
-  CHECK(j["A"].size() == 80u);     // 2 states × 2 wings × 20 strips
+  CHECK(j["A"].size() == 80u);  // 2 states × 2 wings × 20 strips
   CHECK(j["A"][0].size() == 80u);
   CHECK(j["B"][0].size() == 40u);  // inputs: w_¾ per strip
   CHECK(j["C"].size() == 40u);     // outputs: Γ per strip
@@ -125,7 +125,8 @@ TEST_CASE("compare runs every case with the same model and tabulates them side b
   CHECK(text.find("| mean roll moment L (N m) |") != std::string::npos);
   fs::remove_all(out);
   // One config is not a comparison.
-  CHECK(test::run_cli("compare \"" + test::source_path("configs/forward_bat.yaml") + "\"", log) == 2);
+  CHECK(test::run_cli("compare \"" + test::source_path("configs/forward_bat.yaml") + "\"", log) ==
+        2);
 }
 
 TEST_CASE("bad input: exit status 2, one line naming the file and key, and no output left") {
@@ -139,7 +140,8 @@ TEST_CASE("bad input: exit status 2, one line naming the file and key, and no ou
     const std::string key = first.substr(first.find("expect: ") + 8);
     const fs::path out = test::fresh_folder("bad_" + entry.path().stem().string());
     std::string log;
-    const int code = test::run_cli("run \"" + entry.path().string() + "\" -o \"" + out.string() + "\"", log);
+    const int code =
+        test::run_cli("run \"" + entry.path().string() + "\" -o \"" + out.string() + "\"", log);
     CHECK(code == 2);
     CHECK(log.find("key '" + key + "'") != std::string::npos);
     CHECK(log.find(entry.path().filename().string()) != std::string::npos);

@@ -46,8 +46,8 @@ TEST_CASE("demo configs equal the invented samples they document") {
 
 TEST_CASE("--set overrides any key, and a side block overrides the shared gait key by key") {
   const std::string path = test::source_path("configs/rolling_bat.yaml");
-  const ModelSpec s = io::load_spec(path, {"gait.frequency=7.5", "wing.hinge=[0, 0.04, 0]",
-                                           "model.suction_recovery=0.5"});
+  const ModelSpec s = io::load_spec(
+      path, {"gait.frequency=7.5", "wing.hinge=[0, 0.04, 0]", "model.suction_recovery=0.5"});
   CHECK(s.gait.frequency == 7.5);
   CHECK(s.wing.hinge.y() == 0.04);
   CHECK(s.aero.suction_recovery == 0.5);
@@ -67,8 +67,8 @@ TEST_CASE("an override error is placed on the command line") {
     CHECK(e.key() == "gait.frequency");
     CHECK(std::string(e.what()).find("--set gait.frequency=-3") != std::string::npos);
   }
-  CHECK_THROWS_WITH_AS(io::load_model(path, {"wing.spna=0.1"}), doctest::Contains("did you mean 'span'"),
-                       InputError);
+  CHECK_THROWS_WITH_AS(io::load_model(path, {"wing.spna=0.1"}),
+                       doctest::Contains("did you mean 'span'"), InputError);
 }
 
 TEST_CASE("bad-input catalogue: every entry names its key path, file and line") {
@@ -109,8 +109,9 @@ TEST_CASE("planform table from CSV, relative to the config's folder") {
   fs::create_directories(dir);
   std::ofstream(dir / "wing.csv") << "# invented test planform\nspan_fraction,chord,leading_edge\n"
                                      "0,0.04,0.01\n0.5,0.04,0.01\n1,0.02,0.005\n";
-  std::ofstream(dir / "case.yaml") << "wing:\n  planform: table\n  span: 0.2\n  table_file: wing.csv\n"
-                                      "gait:\n  frequency: 10\n  stroke: 40\n";
+  std::ofstream(dir / "case.yaml")
+      << "wing:\n  planform: table\n  span: 0.2\n  table_file: wing.csv\n"
+         "gait:\n  frequency: 10\n  stroke: 40\n";
   const Model m = io::load_model((dir / "case.yaml").string());
   // analytic: S = 0.04·0.1 + (0.04 + 0.02)/2·0.1 = 0.007 m²
   CHECK(m.planform().area() == doctest::Approx(0.007).epsilon(1e-12));

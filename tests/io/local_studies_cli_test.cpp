@@ -21,12 +21,14 @@ nlohmann::json read_json(const fs::path& p) {
 }
 }  // namespace
 
-TEST_CASE("trim writes trim.json, a runnable trimmed.yaml and its run; unreachable is its own status") {
+TEST_CASE(
+    "trim writes trim.json, a runnable trimmed.yaml and its run; unreachable is its own status") {
   const fs::path dir = test::fresh_folder("trim_ok");
   std::string log;
   REQUIRE(test::run_cli("trim " + config("hover_vehicle.yaml") +
                             " --free gait.frequency=15:40 --free gait.pitch.mean=60:120 --balance"
-                            " --no-plot -q -o \"" + dir.string() + "\"",
+                            " --no-plot -q -o \"" +
+                            dir.string() + "\"",
                         log) == 0);
   const nlohmann::json t = read_json(dir / "trim.json");
   CHECK(t["status"] == "trimmed");
@@ -45,7 +47,8 @@ TEST_CASE("trim writes trim.json, a runnable trimmed.yaml and its run; unreachab
   const fs::path far = test::fresh_folder("trim_far");
   CHECK(test::run_cli("trim " + config("hover_vehicle.yaml") +
                           " --free gait.frequency=20:30 --target cycle_mean.lift_N=1"
-                          " --no-plot -q -o \"" + far.string() + "\"",
+                          " --no-plot -q -o \"" +
+                          far.string() + "\"",
                       log) == 6);  // documented: not reachable
   CHECK(read_json(far / "trim.json")["status"] == "not_reachable");
   CHECK_FALSE(fs::exists(far / "trimmed.yaml"));
@@ -55,7 +58,8 @@ TEST_CASE("derivatives and modes write their tables") {
   const fs::path d = test::fresh_folder("derivatives_ok"), m = test::fresh_folder("modes_ok");
   std::string log;
   REQUIRE(test::run_cli("derivatives " + config("forward_bat.yaml") +
-                            " --param gait.frequency --flight --no-plot -q -o \"" + d.string() + "\"",
+                            " --param gait.frequency --flight --no-plot -q -o \"" + d.string() +
+                            "\"",
                         log) == 0);
   std::ifstream csv(d / "derivatives.csv");
   std::string header;
@@ -81,11 +85,11 @@ TEST_CASE("bad trim, derivatives and vehicle input: one line, exit 2, nothing wr
        {Bad{"trim " + hv + " --free model.kind=0:1 --balance", "no number"},
         Bad{"trim " + hv + " --free gait.frequency=30:20 --balance", "LO < HI"},
         Bad{"trim " + hv + " --free gait.frequency=30:40 --balance", "must lie within"},
-        Bad{"trim " + hv + " --free gait.frequency=10:40 --target cycle_mean.lift=1", "unknown quantity"},
+        Bad{"trim " + hv + " --free gait.frequency=10:40 --target cycle_mean.lift=1",
+            "unknown quantity"},
         Bad{"trim " + hi + " --free gait.frequency=10:40 --balance", "vehicle"},
         Bad{"trim " + hv + " --free gait.frequency=10:40", "--balance"},
-        Bad{"derivatives " + hi, "--param"},
-        Bad{"modes " + hi, "vehicle"},
+        Bad{"derivatives " + hi, "--param"}, Bad{"modes " + hi, "vehicle"},
         Bad{"run " + hv + " --set vehicle.mass=-1", "vehicle.mass"},
         Bad{"run " + hv + " --set vehicle.inertia.xz=1e-7", "positive definite"},
         Bad{"run " + hv + " --set flight.airspeed=5 --set flight.velocity=[1,0,0]", "derived"},

@@ -24,7 +24,9 @@ std::string slurp(const fs::path& p) {
   return ss.str();
 }
 
-std::string config(const char* name) { return "\"" + test::source_path(std::string("configs/") + name) + "\""; }
+std::string config(const char* name) {
+  return "\"" + test::source_path(std::string("configs/") + name) + "\"";
+}
 
 int sweep(const std::string& args, std::string& log) {
   return test::run_cli("sweep " + args + " --no-plot -q", log);
@@ -50,8 +52,10 @@ TEST_CASE("every row of a small grid equals flapline run with the same overrides
     CAPTURE(model);
     const fs::path dir = test::fresh_folder(std::string("sweep_rows_") + model);
     std::string log;
-    REQUIRE(sweep(config("forward_bat.yaml") + " --vary gait.frequency=5,6.5 --vary wing.strips=8,12"
-                      " --set model.kind=" + model + " -o \"" + dir.string() + "\"",
+    REQUIRE(sweep(config("forward_bat.yaml") +
+                      " --vary gait.frequency=5,6.5 --vary wing.strips=8,12"
+                      " --set model.kind=" +
+                      model + " -o \"" + dir.string() + "\"",
                   log) == 0);
     const auto rows = table(dir / "sweep.csv");
     REQUIRE(rows.size() == 5u);  // header + 4 cases
@@ -73,7 +77,8 @@ TEST_CASE("every row of a small grid equals flapline run with the same overrides
             if (ch == '.') ch = '/';
           return p;
         }());
-        if (!j.contains(ptr) || j[ptr].is_null()) {  // e.g. the vehicle's keys of a case without one
+        if (!j.contains(ptr) ||
+            j[ptr].is_null()) {  // e.g. the vehicle's keys of a case without one
           CHECK(rows[r][c].empty());
           continue;
         }
@@ -100,11 +105,13 @@ TEST_CASE("threads, shards with merge and a resumed journal give the same sweep.
   std::string shards;
   for (int k = 0; k < 3; ++k) {
     const fs::path s = test::fresh_folder("sweep_shard" + std::to_string(k));
-    REQUIRE(sweep(base + " --shard " + std::to_string(k) + "/3 -o \"" + s.string() + "\"", log) == 0);
+    REQUIRE(sweep(base + " --shard " + std::to_string(k) + "/3 -o \"" + s.string() + "\"", log) ==
+            0);
     shards += " \"" + s.string() + "\"";
   }
   const fs::path merged = test::fresh_folder("sweep_merged");
-  REQUIRE(test::run_cli("merge" + shards + " -o \"" + merged.string() + "\" --no-plot -q", log) == 0);
+  REQUIRE(test::run_cli("merge" + shards + " -o \"" + merged.string() + "\" --no-plot -q", log) ==
+          0);
   CHECK(slurp(merged / "sweep.csv") == reference);
   CHECK(slurp(merged / "sweep.json") == slurp(one / "sweep.json"));
 
@@ -116,7 +123,7 @@ TEST_CASE("threads, shards with merge and a resumed journal give the same sweep.
     std::ofstream out(resumed / "journal.csv", std::ios::binary);
     std::string line;
     for (int n = 0; std::getline(in, line); ++n) {
-      if (n < 2 + 5) out << line << "\n";  // tag, header, 5 of 10 rows
+      if (n < 2 + 5) out << line << "\n";                      // tag, header, 5 of 10 rows
       if (n == 2 + 5) out << line.substr(0, line.size() / 2);  // cut short
     }
   }
@@ -135,7 +142,8 @@ TEST_CASE("a case refused per case is a row with its status; the sweep goes on a
   std::string log;
   const int code = sweep(config("hover_insect.yaml") +
                              " --vary wing.strip_spacing=0,1 --set model.kind=wagner"
-                             " --set wing.strips=40 -o \"" + dir.string() + "\"",
+                             " --set wing.strips=40 -o \"" +
+                             dir.string() + "\"",
                          log);
   // wing.strip_spacing takes a word: 0 and 1 are refused up front (nothing written).
   CHECK(code == 2);
@@ -144,11 +152,12 @@ TEST_CASE("a case refused per case is a row with its status; the sweep goes on a
   fs::create_directories(cases);
   std::ofstream(cases / "cases.csv") << "# spacing per case\nwing.strip_spacing,gait.frequency\n"
                                         "uniform,\ncosine,\n,22\n~,20\n";
-  REQUIRE(sweep(config("hover_insect.yaml") + " --cases \"" + (cases / "cases.csv").string() +
-                    "\" --set model.kind=wagner --set wing.strips=40 --set simulation.integrator=rk4"
-                    " --set wing.strip_spacing=uniform -o \"" +
-                    (cases / "out").string() + "\"",
-                log) == 5);  // documented: some case failed
+  REQUIRE(
+      sweep(config("hover_insect.yaml") + " --cases \"" + (cases / "cases.csv").string() +
+                "\" --set model.kind=wagner --set wing.strips=40 --set simulation.integrator=rk4"
+                " --set wing.strip_spacing=uniform -o \"" +
+                (cases / "out").string() + "\"",
+            log) == 5);  // documented: some case failed
   const auto rows = table(cases / "out" / "sweep.csv");
   REQUIRE(rows.size() == 5u);
   CHECK(rows[1][3] == "converged");
@@ -168,14 +177,15 @@ TEST_CASE("bad sweep input: one line, exit 2, nothing written") {
   struct Bad {
     std::string args, says;
   };
-  for (const Bad& b : {Bad{hover + " --vary gait.frequencyy=1,2", "unknown key"},
-                       Bad{hover + " --vary gait.frequency=0:30:4", "(0, 2000]"},
-                       Bad{hover + " --vary gait.frequency=20:30", "needs a count"},
-                       Bad{hover + " --vary gait.frequency=20:x:3", "not a number"},
-                       Bad{hover + " --vary gait.frequency=20,30 --shard 3/3", "K/N"},
-                       Bad{hover + " --vary gait.frequency=20,30 --design latin --samples 4", "ranges"},
-                       Bad{hover + " --vary wing.strips=5:6:3", "whole number"},
-                       Bad{hover, "at least one --vary"}}) {
+  for (const Bad& b :
+       {Bad{hover + " --vary gait.frequencyy=1,2", "unknown key"},
+        Bad{hover + " --vary gait.frequency=0:30:4", "(0, 2000]"},
+        Bad{hover + " --vary gait.frequency=20:30", "needs a count"},
+        Bad{hover + " --vary gait.frequency=20:x:3", "not a number"},
+        Bad{hover + " --vary gait.frequency=20,30 --shard 3/3", "K/N"},
+        Bad{hover + " --vary gait.frequency=20,30 --design latin --samples 4", "ranges"},
+        Bad{hover + " --vary wing.strips=5:6:3", "whole number"},
+        Bad{hover, "at least one --vary"}}) {
     CAPTURE(b.args);
     std::string log;
     CHECK(sweep(b.args + out, log) == 2);
@@ -186,8 +196,10 @@ TEST_CASE("bad sweep input: one line, exit 2, nothing written") {
   // merge: a missing shard, and shards of different sweeps.
   std::string log;
   const fs::path a = test::fresh_folder("sweep_merge_a"), b = test::fresh_folder("sweep_merge_b");
-  REQUIRE(sweep(hover + " --vary gait.frequency=20,30 --shard 0/2 -o \"" + a.string() + "\"", log) == 0);
-  REQUIRE(sweep(hover + " --vary gait.frequency=20,31 --shard 1/2 -o \"" + b.string() + "\"", log) == 0);
+  REQUIRE(sweep(hover + " --vary gait.frequency=20,30 --shard 0/2 -o \"" + a.string() + "\"",
+                log) == 0);
+  REQUIRE(sweep(hover + " --vary gait.frequency=20,31 --shard 1/2 -o \"" + b.string() + "\"",
+                log) == 0);
   CHECK(test::run_cli("merge \"" + a.string() + "\"" + out, log) == 2);
   CHECK(log.find("missing") != std::string::npos);
   CHECK(test::run_cli("merge \"" + a.string() + "\" \"" + b.string() + "\"" + out, log) == 2);
@@ -216,10 +228,11 @@ TEST_CASE("latin sweeps are reproducible from the seed") {
 TEST_CASE("compare runs one config under several override sets") {
   const fs::path dir = test::fresh_folder("compare_variants");
   std::string log;
-  REQUIRE(test::run_cli("compare " + config("hover_insect.yaml") +
-                            " --variant \"gait.frequency=20\" --variant \"gait.frequency=40\" -o \"" +
-                            dir.string() + "\" --no-plot -q",
-                        log) == 0);
+  REQUIRE(
+      test::run_cli("compare " + config("hover_insect.yaml") +
+                        " --variant \"gait.frequency=20\" --variant \"gait.frequency=40\" -o \"" +
+                        dir.string() + "\" --no-plot -q",
+                    log) == 0);
   const std::string csv = slurp(dir / "comparison.csv");
   CHECK(csv.find("gait.frequency=20") != std::string::npos);
   // analytic: quasi-steady hover lift scales with f², so the ratio of the lift cells is 4.
@@ -237,8 +250,10 @@ TEST_CASE("rules between keys are left to the cases; a value's own range is chec
   const std::string hover = config("hover_insect.yaml") + " --set wing.strips=6";
   // r̂₂ must exceed r̂₁: (0.5, 0.5) is refused per case, (0.45, 0.5) and (0.5, 0.55) run.
   const fs::path grid = test::fresh_folder("sweep_between");
-  CHECK(sweep(hover + " --vary wing.first_moment_radius=0.45,0.5"
-                      " --vary wing.second_moment_radius=0.5,0.55 -o \"" + grid.string() + "\"",
+  CHECK(sweep(hover +
+                  " --vary wing.first_moment_radius=0.45,0.5"
+                  " --vary wing.second_moment_radius=0.5,0.55 -o \"" +
+                  grid.string() + "\"",
               log) == 5);
   const auto rows = table(grid / "sweep.csv");
   REQUIRE(rows.size() == 5u);
@@ -268,7 +283,8 @@ TEST_CASE("rules between keys are left to the cases; a value's own range is chec
   }
 }
 
-TEST_CASE("rows do not depend on how the config's path is spelled; merge never overwrites a shard") {
+TEST_CASE(
+    "rows do not depend on how the config's path is spelled; merge never overwrites a shard") {
   const fs::path dir = test::fresh_folder("sweep_paths");
   fs::create_directories(dir);
   fs::copy_file(test::source_path("configs/hover_insect.yaml"), dir / "h.yaml");
@@ -277,8 +293,8 @@ TEST_CASE("rows do not depend on how the config's path is spelled; merge never o
   CHECK(sweep("\"" + (dir / "h.yaml").string() + "\" --cases \"" + (dir / "pl.csv").string() +
                   "\" -o \"" + (dir / "a").string() + "\"",
               log) == 5);
-  CHECK(sweep("\"" + (dir / "." / "h.yaml").string() + "\" --cases \"" +
-                  (dir / "pl.csv").string() + "\" -o \"" + (dir / "b").string() + "\"",
+  CHECK(sweep("\"" + (dir / "." / "h.yaml").string() + "\" --cases \"" + (dir / "pl.csv").string() +
+                  "\" -o \"" + (dir / "b").string() + "\"",
               log) == 5);
   CHECK(slurp(dir / "a" / "sweep.csv") == slurp(dir / "b" / "sweep.csv"));
   const auto rows = table(dir / "a" / "sweep.csv");
@@ -286,7 +302,8 @@ TEST_CASE("rows do not depend on how the config's path is spelled; merge never o
   CHECK(rows[2][3].find(dir.string()) == std::string::npos);
   // Merging into a shard folder is refused.
   const fs::path s0 = dir / "s0", s1 = dir / "s1";
-  const std::string base = config("hover_insect.yaml") + " --set wing.strips=6 --vary gait.frequency=20,25";
+  const std::string base =
+      config("hover_insect.yaml") + " --set wing.strips=6 --vary gait.frequency=20,25";
   REQUIRE(sweep(base + " --shard 0/2 -o \"" + s0.string() + "\"", log) == 0);
   REQUIRE(sweep(base + " --shard 1/2 -o \"" + s1.string() + "\"", log) == 0);
   const std::string before = slurp(s0 / "sweep.csv");

@@ -85,7 +85,8 @@ TEST_CASE("tabulated cycle: periodic spline through the rows, C² across the sea
   }
   s.table_value.back() = s.table_value.front();
   const Waveform w(s, "w");
-  for (int i = 0; i < 24; ++i) CHECK(w.at(i / 24.0, 1.0).value == doctest::Approx(s.table_value[i]));
+  for (int i = 0; i < 24; ++i)
+    CHECK(w.at(i / 24.0, 1.0).value == doctest::Approx(s.table_value[i]));
   // A periodic cubic spline of a sampled sine converges as h⁴ (common practice): 24 points give
   // about 1e-5 in value.
   for (double t : {0.013, 0.31, 0.77})

@@ -13,11 +13,10 @@ using namespace flapline::reference;
 TEST_CASE("Theodorsen's function matches the computed table") {
   // REFERENCES §2 (computed with SciPy/mpmath/Boost.Math; definition Theodorsen 1935, NACA
   // Report 496): F(k), G(k) to 1e-6.
-  const double table[][3] = {{0.01, 0.982422, -0.045652}, {0.05, 0.909009, -0.130644},
-                             {0.1, 0.831924, -0.172302},  {0.2, 0.727580, -0.188624},
-                             {0.3, 0.664971, -0.179319},  {0.5, 0.597936, -0.150710},
-                             {0.8, 0.554147, -0.116502},  {1.0, 0.539435, -0.100273},
-                             {2.0, 0.512955, -0.057691}};
+  const double table[][3] = {
+      {0.01, 0.982422, -0.045652}, {0.05, 0.909009, -0.130644}, {0.1, 0.831924, -0.172302},
+      {0.2, 0.727580, -0.188624},  {0.3, 0.664971, -0.179319},  {0.5, 0.597936, -0.150710},
+      {0.8, 0.554147, -0.116502},  {1.0, 0.539435, -0.100273},  {2.0, 0.512955, -0.057691}};
   for (const auto& row : table) {
     const auto c = theodorsen(row[0]);
     CHECK(std::abs(c.real() - row[1]) < 1e-6);
@@ -30,9 +29,8 @@ TEST_CASE("Theodorsen's function matches the computed table") {
 
 TEST_CASE("exact Wagner function matches the computed table") {
   // REFERENCES §1 (exact theory, computed; Wagner 1925, ZAMM 5): φ(0) = ½ and values to 1e-6.
-  const double table[][2] = {{0.5, 0.555664}, {1, 0.600606},  {2, 0.669290},
-                             {5, 0.788203},   {10, 0.875045}, {20, 0.936649},
-                             {50, 0.976764},  {100, 0.989059}};
+  const double table[][2] = {{0.5, 0.555664}, {1, 0.600606},  {2, 0.669290},  {5, 0.788203},
+                             {10, 0.875045},  {20, 0.936649}, {50, 0.976764}, {100, 0.989059}};
   CHECK(std::abs(wagner(0.0) - 0.5) < 1e-9);
   for (const auto& row : table) CHECK(std::abs(wagner(row[0]) - row[1]) < 1e-6);
 }
@@ -45,7 +43,8 @@ TEST_CASE("the R.T. Jones fit stays within its known error of the exact function
     worst = std::max(worst, std::abs(wagner_fit(s, 0.165, 0.335, 0.0455, 0.3) - wagner(s)));
   CHECK(worst < 0.01);
   CHECK(worst > 0.009);
-  CHECK(wagner_fit(1, 0.165, 0.335, 0.0455, 0.3) - wagner(1) == doctest::Approx(-0.0064).epsilon(0.02));
+  CHECK(wagner_fit(1, 0.165, 0.335, 0.0455, 0.3) - wagner(1) ==
+        doctest::Approx(-0.0064).epsilon(0.02));
   // C_J(0.5) = 0.5900 − 0.1627i vs exact 0.5979 − 0.1507i (REFERENCES §1)
   const auto cj = theodorsen_fit(0.5, 0.165, 0.335, 0.0455, 0.3);
   CHECK(std::abs(cj.real() - 0.5900) < 1e-4);

@@ -109,13 +109,13 @@ TEST_CASE("a uniform plate's stroke torque is I·φ̈ with the exact stroke-axis
   // analytic: I = m[R²/3 + (c²/12 + (½ − x₀)²c²)cos²ψ] about the stroke axis, whatever the strip
   // count and spacing; with ψ constant and no deviation the inertial stroke torque is I φ̈.
   for (const double psi : {0.0, 35.0 * kDegree, 90.0 * kDegree}) {
-    for (const auto& [count, spacing] : {std::pair{3, StripSpacing::uniform},
-                                         std::pair{7, StripSpacing::cosine},
-                                         std::pair{40, StripSpacing::cosine}}) {
+    for (const auto& [count, spacing] :
+         {std::pair{3, StripSpacing::uniform}, std::pair{7, StripSpacing::cosine},
+          std::pair{40, StripSpacing::cosine}}) {
       const Model model(plate(psi, count, spacing));
       const double m = 0.002, R = 0.1, c = 0.03, x0 = 0.3;
-      const double inertia =
-          m * (R * R / 3.0 + (c * c / 12.0 + (0.5 - x0) * (0.5 - x0) * c * c) * std::cos(psi) * std::cos(psi));
+      const double inertia = m * (R * R / 3.0 + (c * c / 12.0 + (0.5 - x0) * (0.5 - x0) * c * c) *
+                                                    std::cos(psi) * std::cos(psi));
       const RunSummary r = simulate(model);
       REQUIRE(!r.history.empty());
       const double omega = 2.0 * kPi * 10.0, amplitude = inertia * 50.0 * kDegree * omega * omega;
@@ -126,8 +126,8 @@ TEST_CASE("a uniform plate's stroke torque is I·φ̈ with the exact stroke-axis
         for (int s = 0; s < 2; ++s) {
           CAPTURE(psi);
           CAPTURE(count);
-          CHECK(std::abs(h.loads.drive[static_cast<std::size_t>(s)].torque_inertial[0] - inertia * accel) <=
-                1e-12 * amplitude);
+          CHECK(std::abs(h.loads.drive[static_cast<std::size_t>(s)].torque_inertial[0] -
+                         inertia * accel) <= 1e-12 * amplitude);
         }
         peak = std::max(peak, std::abs(h.loads.drive[0].torque_inertial[0]));
       }
@@ -151,8 +151,8 @@ TEST_CASE("the inertial work over a half-stroke is the change of kinetic energy"
   const double dt = model.period() / n;
   for (int i = 0; i <= half; ++i) {
     const double w = (i == 0 || i == half) ? 1.0 : (i % 2 ? 4.0 : 2.0);
-    const HistoryRow& h =
-        i < half ? r.history[first + static_cast<std::size_t>(i)] : r.history[first + static_cast<std::size_t>(i)];
+    const HistoryRow& h = i < half ? r.history[first + static_cast<std::size_t>(i)]
+                                   : r.history[first + static_cast<std::size_t>(i)];
     work += w * h.loads.drive[0].power_inertial;
   }
   work *= dt / 3.0;
@@ -166,7 +166,8 @@ TEST_CASE("the inertial work over a half-stroke is the change of kinetic energy"
   const int q = n / 4;
   for (int i = 0; i <= q; ++i) {
     const double w = (i == 0 || i == q) ? 1.0 : (i % 2 ? 4.0 : 2.0);
-    quarter_work += w * r.history[first + static_cast<std::size_t>(i)].loads.drive[0].power_inertial;
+    quarter_work +=
+        w * r.history[first + static_cast<std::size_t>(i)].loads.drive[0].power_inertial;
   }
   quarter_work *= dt / 3.0;
   const double change = kinetic(t0 + quarter) - kinetic(t0);
@@ -181,10 +182,11 @@ TEST_CASE("joint powers sum to the actuator plus inertial power; inertial power 
   const Model model(busy_bat());
   const RunSummary r = simulate(model);
   REQUIRE(has_results(r.status));
-  const double p_scale = max_abs(r, [](const HistoryRow& h) { return std::abs(h.loads.power_actuator); });
-  const double i_scale = std::max(
-      max_abs(r, [](const HistoryRow& h) { return h.loads.drive[0].power_inertial; }),
-      max_abs(r, [](const HistoryRow& h) { return h.loads.drive[1].power_inertial; }));
+  const double p_scale =
+      max_abs(r, [](const HistoryRow& h) { return std::abs(h.loads.power_actuator); });
+  const double i_scale =
+      std::max(max_abs(r, [](const HistoryRow& h) { return h.loads.drive[0].power_inertial; }),
+               max_abs(r, [](const HistoryRow& h) { return h.loads.drive[1].power_inertial; }));
   REQUIRE(i_scale > 0.0);
   const double delta = 1e-4 * model.period();
   for (const HistoryRow& h : r.history) {
@@ -201,7 +203,8 @@ TEST_CASE("joint powers sum to the actuator plus inertial power; inertial power 
     for (int s = 0; s < 2; ++s) {
       const Side side = static_cast<Side>(s);
       const double dh = (energy_function(model, side, l.time + delta) -
-                         energy_function(model, side, l.time - delta)) / (2.0 * delta);
+                         energy_function(model, side, l.time - delta)) /
+                        (2.0 * delta);
       CHECK(std::abs(l.drive[static_cast<std::size_t>(s)].power_inertial - dh) <= 1e-5 * i_scale);
     }
   }
@@ -292,7 +295,8 @@ TEST_CASE("profile drag of a fixed wing is ½ρU²S·C_D0, constant or Blasius")
   // analytic: a flat wing at zero incidence carries no lift, only its profile drag; the Blasius
   // laminar flat plate gives C_D0 = 2·1.328/√Re on both faces (Blasius 1908), floored at Re = 100.
   const double S = 0.2 * 0.05;
-  for (const ModelKind kind : {ModelKind::quasi_steady, ModelKind::wagner, ModelKind::lifting_line}) {
+  for (const ModelKind kind :
+       {ModelKind::quasi_steady, ModelKind::wagner, ModelKind::lifting_line}) {
     ModelSpec s = fixed_wing(5.0);
     s.aero.kind = kind;
     s.aero.profile_drag.law = ProfileDragLaw::constant;
@@ -350,8 +354,10 @@ TEST_CASE("with a vehicle attitude the wing's weight loads the joints: m g R/2 o
     for (const WingDriveSample& d : h.loads.drive) {
       CHECK(test::close(d.torque_gravity[1], expected, 1e-12));
       CHECK(std::abs(d.torque_gravity[0]) <= 1e-12 * expected);
-      CHECK(test::close(d.torque_gravity[4], -0.002 * kStandardGravity, 1e-12));  // plunge holds it up
-      CHECK(test::close(d.torque[1], d.torque_aero[1] + d.torque_inertial[1] + d.torque_gravity[1], 1e-12));
+      CHECK(test::close(d.torque_gravity[4], -0.002 * kStandardGravity,
+                        1e-12));  // plunge holds it up
+      CHECK(test::close(d.torque[1], d.torque_aero[1] + d.torque_inertial[1] + d.torque_gravity[1],
+                        1e-12));
     }
   s.vehicle.reset();  // without a vehicle there is no attitude: no gravity part
   const RunSummary without = simulate(Model(s));

@@ -27,7 +27,8 @@ ModelSpec tight(ModelSpec s) {
 }  // namespace
 
 TEST_CASE("hover: the stroke disc's w0 satisfies Rankine-Froude with the run's own thrust") {
-  for (const ModelKind kind : {ModelKind::quasi_steady, ModelKind::wagner, ModelKind::lifting_line}) {
+  for (const ModelKind kind :
+       {ModelKind::quasi_steady, ModelKind::wagner, ModelKind::lifting_line}) {
     ModelSpec s = tight(samples::hover_insect());
     s.aero.kind = kind;
     const RunSummary off = simulate(Model(s));
@@ -52,7 +53,8 @@ TEST_CASE("hover: the stroke disc's w0 satisfies Rankine-Froude with the run's o
 }
 
 TEST_CASE("slow flight and climb: the stroke disc's w0 satisfies Glauert's relation") {
-  for (const Eigen::Vector3d& velocity : {Eigen::Vector3d(1.5, 0.0, 0.0), Eigen::Vector3d(0.5, 0.0, -0.8)}) {
+  for (const Eigen::Vector3d& velocity :
+       {Eigen::Vector3d(1.5, 0.0, 0.0), Eigen::Vector3d(0.5, 0.0, -0.8)}) {
     ModelSpec s = tight(samples::hover_insect());
     s.aero.kind = ModelKind::wagner;
     s.gait.stroke_plane_angle = 20.0 * kDegree;
@@ -79,7 +81,8 @@ TEST_CASE("descent through the stroke disc is warned about (vortex-ring state)")
   s.aero.inflow = InflowModel::stroke_disc;
   const RunSummary r = simulate(Model(s));
   bool warned = false;
-  for (const std::string& w : r.warnings) warned = warned || w.find("vortex-ring") != std::string::npos;
+  for (const std::string& w : r.warnings)
+    warned = warned || w.find("vortex-ring") != std::string::npos;
   CHECK(warned);
 }
 

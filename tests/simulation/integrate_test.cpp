@@ -19,7 +19,9 @@ ModelSpec swapped(ModelSpec s) {
   std::swap(s.gait.left, s.gait.right);
   return s;
 }
-double scale_of(const RunSummary& r) { return r.averages.force_rms; }
+double scale_of(const RunSummary& r) {
+  return r.averages.force_rms;
+}
 }  // namespace
 
 TEST_CASE("a symmetric gait gives zero side force, roll and yaw to round-off") {
@@ -78,7 +80,8 @@ TEST_CASE("cycle means do not depend on the number of output samples beyond the 
       s.simulation.samples_per_cycle = n;
       const RunSummary r = simulate(Model(s));
       CAPTURE(n);
-      CHECK((r.averages.mean.force - ref.averages.mean.force).norm() <= 1e-6 * ref.averages.force_rms);
+      CHECK((r.averages.mean.force - ref.averages.mean.force).norm() <=
+            1e-6 * ref.averages.force_rms);
       CHECK(std::abs(r.averages.power_air_mean - ref.averages.power_air_mean) <=
             1e-6 * ref.averages.power_air_peak);
     }
@@ -92,10 +95,12 @@ TEST_CASE("reference figures follow their definitions") {
   const DerivedQuantities& f = r.derived;
   REQUIRE(f.mean_lift_coefficient);
   CHECK(*f.mean_lift_coefficient ==
-        doctest::Approx(r.mean_lift() / (0.5 * r.air_density * std::pow(f.reference_speed, 2) * 2 * f.area)));
+        doctest::Approx(r.mean_lift() /
+                        (0.5 * r.air_density * std::pow(f.reference_speed, 2) * 2 * f.area)));
   CHECK(*f.reduced_frequency == doctest::Approx(kPi * 6.0 * f.mean_chord / f.reference_speed));
   CHECK(*f.advance_ratio == doctest::Approx(6.0 / (2 * 60 * kDegree * 6.0 * 0.25)).epsilon(1e-4));
-  CHECK(*f.reynolds_number == doctest::Approx(f.reference_speed * f.mean_chord / r.kinematic_viscosity));
+  CHECK(*f.reynolds_number ==
+        doctest::Approx(f.reference_speed * f.mean_chord / r.kinematic_viscosity));
   // Hover: no advance ratio of note (V = 0).
   CHECK(*simulate(Model(samples::hover_insect())).derived.advance_ratio == 0.0);
 }

@@ -36,9 +36,9 @@ TEST_CASE("VALUES: lists, inclusive linear and geometric ranges") {
 }
 
 TEST_CASE("malformed VALUES are refused with the key named") {
-  for (const char* bad : {"gait.frequency", "=1,2", "gait.frequency=", "gait.frequency=a,b",
-                          "gait.frequency=1:2:1", "gait.frequency=1:2:2.5", "k=log:-1:2:3",
-                          "k=1:2:3:4", "k=1:nan:3"}) {
+  for (const char* bad :
+       {"gait.frequency", "=1,2", "gait.frequency=", "gait.frequency=a,b", "gait.frequency=1:2:1",
+        "gait.frequency=1:2:2.5", "k=log:-1:2:3", "k=1:2:3:4", "k=1:nan:3"}) {
     CAPTURE(bad);
     CHECK_THROWS_AS(parse_vary(bad), InputError);
   }

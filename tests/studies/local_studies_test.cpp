@@ -25,9 +25,12 @@ std::unique_ptr<io::CaseLoader> hover(std::vector<std::string> sets = {}) {
   return std::make_unique<io::CaseLoader>(test::source_path("configs/hover_insect.yaml"), sets);
 }
 
-CaseBuilderFactory factory(const io::CaseLoader& l) { return io::case_builders(l); }
+CaseBuilderFactory factory(const io::CaseLoader& l) {
+  return io::case_builders(l);
+}
 
-Parameter key(const io::CaseLoader& l, const std::string& k, double lo = -1e300, double hi = 1e300) {
+Parameter key(const io::CaseLoader& l, const std::string& k, double lo = -1e300,
+              double hi = 1e300) {
   Parameter p;
   p.name = k;
   p.base = *l.number_at(k);
@@ -64,8 +67,8 @@ TEST_CASE("trim: quasi-steady hover lift target gives f* = f·sqrt(L*/L)") {
 TEST_CASE("trim recovers left and right stroke amplitudes from their mean wrench") {
   const auto l = hover();
   // The wrench of a known asymmetric gait is the target; start elsewhere.
-  const CaseSpec known{{{"gait.left.stroke.amplitude", "52", false},
-                        {"gait.right.stroke.amplitude", "58", false}}};
+  const CaseSpec known{
+      {{"gait.left.stroke.amplitude", "52", false}, {"gait.right.stroke.amplitude", "58", false}}};
   const RunSummary ref = evaluate({known}, factory(*l), {}).front();
   std::vector<Parameter> free{key(*l, "gait.left.stroke.amplitude", 40, 70),
                               key(*l, "gait.right.stroke.amplitude", 40, 70)};
@@ -127,8 +130,7 @@ TEST_CASE("derivatives: f² and density laws, symmetry, Richardson") {
   // amplitude (the lift is quadratic in the stroke amplitude, where the differences are exact).
   auto one = [&](double h) {
     std::vector<CaseSpec> c;
-    for (double s : {h, -h})
-      c.push_back({{{"gait.pitch.amplitude", shortest(45.0 + s), false}}});
+    for (double s : {h, -h}) c.push_back({{{"gait.pitch.amplitude", shortest(45.0 + s), false}}});
     const auto runs = evaluate(c, factory(*l), {});
     return (runs[0].averages.mean.force.z() - runs[1].averages.mean.force.z()) / (2 * h);
   };
@@ -178,7 +180,7 @@ TEST_CASE("linear model: heave, a textbook A matrix, eigenvalues") {
   const LinearModel m = linear_model(lv);
   const double g = 9.80665, mass = 0.5, Iy = 0.02;
   Eigen::Matrix4d textbook;
-  textbook << Xu / mass, Xw / mass, 0.0, -g,     //
+  textbook << Xu / mass, Xw / mass, 0.0, -g,       //
       Zu / mass, Zw / mass, Zq / mass + 4.0, 0.0,  //
       Mu / Iy, Mw / Iy, Mq / Iy, 0.0,              //
       0.0, 0.0, 1.0, 0.0;
@@ -216,9 +218,9 @@ vehicle: {mass: 0.05, inertia: {xx: 1.0e-4, yy: 2.0e-4, zz: 2.5e-4, xz: 1.0e-5},
   CHECK((s.vehicle->steady_residual.moment - (s.vehicle->net.moment - w.cross(I * w))).norm() <=
         1e-15);
   // Gravity in body axes and the lift-to-weight ratio.
-  CHECK((s.vehicle->gravity_force -
-         0.05 * 9.80665 *
-             Eigen::Vector3d(-std::sin(th), std::sin(ph) * std::cos(th), std::cos(ph) * std::cos(th)))
+  CHECK((s.vehicle->gravity_force - 0.05 * 9.80665 *
+                                        Eigen::Vector3d(-std::sin(th), std::sin(ph) * std::cos(th),
+                                                        std::cos(ph) * std::cos(th)))
             .norm() <= 1e-15);
   CHECK(s.vehicle->lift_to_weight == doctest::Approx(s.mean_lift() / (0.05 * 9.80665)));
 }

@@ -1,11 +1,11 @@
 #pragma once
 // Helpers shared by the tests: relative comparison, paths, running the CLI.
+#include <sys/wait.h>
+#include <unistd.h>
 #include <cmath>
 #include <cstdlib>
 #include <filesystem>
 #include <string>
-#include <sys/wait.h>
-#include <unistd.h>
 
 #include <atomic>
 
@@ -27,8 +27,8 @@ inline int run_cli(const std::string& args, std::string& output) {
   const std::filesystem::path log =
       std::filesystem::temp_directory_path() /
       ("flapline_cli_" + std::to_string(::getpid()) + "_" + std::to_string(counter++) + ".log");
-  const std::string cmd = std::string("\"") + FLAPLINE_CLI + "\" " + args + " > \"" + log.string() +
-                          "\" 2>&1";
+  const std::string cmd =
+      std::string("\"") + FLAPLINE_CLI + "\" " + args + " > \"" + log.string() + "\" 2>&1";
   const int raw = std::system(cmd.c_str());
   output.clear();
   if (FILE* f = std::fopen(log.string().c_str(), "r")) {

@@ -70,15 +70,15 @@ TEST_CASE("a case passes with the right reference and fails with a deliberately 
   // The CLI exits non-zero and still writes the report.
   std::string log;
   const fs::path out = test::fresh_folder("validation_cli_out");
-  CHECK(test::run_cli("validate --no-plot --cases-dir \"" + bad.string() + "\" -o \"" +
-                          out.string() + "\"",
-                      log) == 4);
+  CHECK(test::run_cli(
+            "validate --no-plot --cases-dir \"" + bad.string() + "\" -o \"" + out.string() + "\"",
+            log) == 4);
   CHECK(fs::exists(out / "report.md"));
   CHECK(log.find("VALIDATION FAILED") != std::string::npos);
   fs::remove_all(out);
-  CHECK(test::run_cli("validate --no-plot --cases-dir \"" + good.string() + "\" -o \"" +
-                          out.string() + "\"",
-                      log) == 0);
+  CHECK(test::run_cli(
+            "validate --no-plot --cases-dir \"" + good.string() + "\" -o \"" + out.string() + "\"",
+            log) == 0);
   fs::remove_all(good);
   fs::remove_all(bad);
   fs::remove_all(out);

@@ -52,8 +52,12 @@ ModelSpec with_model(ModelSpec s, ModelKind kind) {
   return s;
 }
 
-void quasi_steady_hover(benchmark::State& state) { run_cycles(state, samples::hover_insect()); }
-void quasi_steady_forward(benchmark::State& state) { run_cycles(state, samples::forward_bat()); }
+void quasi_steady_hover(benchmark::State& state) {
+  run_cycles(state, samples::hover_insect());
+}
+void quasi_steady_forward(benchmark::State& state) {
+  run_cycles(state, samples::forward_bat());
+}
 void wagner_hover(benchmark::State& state) {
   run_cycles(state, with_model(samples::hover_insect(), ModelKind::wagner));
 }
@@ -97,7 +101,8 @@ void hover_cosine_lifting_line(benchmark::State& state) {
 // Cost breakdown of one uncached lifting-line stage (20 strips per wing): assembling K, factorising
 // I − D₀K, and the rest of a derivative once the phase is cached.
 const Model& forward_lifting_line() {
-  static const Model model(bench_spec(with_model(samples::forward_bat(), ModelKind::lifting_line), 8));
+  static const Model model(
+      bench_spec(with_model(samples::forward_bat(), ModelKind::lifting_line), 8));
   return model;
 }
 void lifting_line_assemble_k(benchmark::State& state) {
@@ -151,9 +156,10 @@ void lifting_line_cached_derivative(benchmark::State& state) {
 // override and run to convergence (quasi_steady) or for a fixed-tolerance run from rest (wagner),
 // as `flapline sweep` does; argument = threads.
 void sweep(benchmark::State& state, const char* model, int cases) {
-  const io::CaseLoader loader(std::string(FLAPLINE_SOURCE_DIR) + "/configs/hover_insect.yaml",
-                              {std::string("model.kind=") + model, "wing.strips=20",
-                               "simulation.steps_per_cycle=400", "simulation.samples_per_cycle=100"});
+  const io::CaseLoader loader(
+      std::string(FLAPLINE_SOURCE_DIR) + "/configs/hover_insect.yaml",
+      {std::string("model.kind=") + model, "wing.strips=20", "simulation.steps_per_cycle=400",
+       "simulation.samples_per_cycle=100"});
   studies::Design d;
   d.keys = {studies::parse_vary("gait.frequency=20:30:" + std::to_string(cases))};
   const std::vector<studies::CaseSpec> specs = studies::make_cases(d);
@@ -165,16 +171,18 @@ void sweep(benchmark::State& state, const char* model, int cases) {
   for (auto _ : state) {
     converged = 0;
     studies::run_cases(
-        specs, all,
-        io::case_builders(loader),
-        options,
+        specs, all, io::case_builders(loader), options,
         [&](std::size_t, const RunSummary& r) { converged += r.status == RunStatus::converged; });
   }
   state.counters["cases"] = static_cast<double>(cases);
   state.counters["converged"] = static_cast<double>(converged);
 }
-void sweep_quasi_steady_hover_10000(benchmark::State& state) { sweep(state, "quasi_steady", 10000); }
-void sweep_wagner_hover_1000(benchmark::State& state) { sweep(state, "wagner", 1000); }
+void sweep_quasi_steady_hover_10000(benchmark::State& state) {
+  sweep(state, "quasi_steady", 10000);
+}
+void sweep_wagner_hover_1000(benchmark::State& state) {
+  sweep(state, "wagner", 1000);
+}
 
 // Trim and derivatives of the hover vehicle demo (inner runs as `flapline trim` makes them).
 studies::Parameter free_key(const io::CaseLoader& l, const char* key, double lo, double hi) {
@@ -193,9 +201,8 @@ void trim_hover(benchmark::State& state, const char* model) {
       free_key(loader, "gait.left.stroke.amplitude", 40, 75),
       free_key(loader, "gait.right.stroke.amplitude", 40, 75),
       free_key(loader, "gait.pitch.mean", 60, 120)};
-  const std::vector<studies::Target> targets{{"cycle_mean.lift_N", 0.0196133},
-                                             {"cycle_mean.L_roll_Nm", 2e-5},
-                                             {"cycle_mean.X_N", 0.0}};
+  const std::vector<studies::Target> targets{
+      {"cycle_mean.lift_N", 0.0196133}, {"cycle_mean.L_roll_Nm", 2e-5}, {"cycle_mean.X_N", 0.0}};
   studies::TrimOptions o;
   o.runner.threads = static_cast<int>(state.range(0));
   int runs = 0;
@@ -206,14 +213,19 @@ void trim_hover(benchmark::State& state, const char* model) {
   }
   state.counters["runs"] = runs;
 }
-void trim_quasi_steady_3_free(benchmark::State& state) { trim_hover(state, "quasi_steady"); }
-void trim_lifting_line_3_free(benchmark::State& state) { trim_hover(state, "lifting_line"); }
+void trim_quasi_steady_3_free(benchmark::State& state) {
+  trim_hover(state, "quasi_steady");
+}
+void trim_lifting_line_3_free(benchmark::State& state) {
+  trim_hover(state, "lifting_line");
+}
 void derivatives_6_params_and_flight(benchmark::State& state) {
   const io::CaseLoader loader(std::string(FLAPLINE_SOURCE_DIR) + "/configs/level_bat.yaml",
                               {"simulation.start=periodic", "simulation.tolerance=1e-9"});
   std::vector<studies::Parameter> params = studies::Parameter::flight_state();
-  for (const char* k : {"gait.frequency", "gait.stroke.amplitude", "gait.pitch.mean",
-                        "gait.pitch.amplitude", "gait.span_ratio.amplitude", "vehicle.attitude.pitch"})
+  for (const char* k :
+       {"gait.frequency", "gait.stroke.amplitude", "gait.pitch.mean", "gait.pitch.amplitude",
+        "gait.span_ratio.amplitude", "vehicle.attitude.pitch"})
     params.push_back(free_key(loader, k, -1e300, 1e300));
   studies::RunnerOptions o;
   o.threads = static_cast<int>(state.range(0));
@@ -229,8 +241,18 @@ void derivatives_6_params_and_flight(benchmark::State& state) {
 BENCHMARK(trim_quasi_steady_3_free)->Arg(2)->UseRealTime()->Unit(benchmark::kMillisecond);
 BENCHMARK(trim_lifting_line_3_free)->Arg(2)->Iterations(1)->UseRealTime()->Unit(benchmark::kSecond);
 BENCHMARK(derivatives_6_params_and_flight)->Arg(2)->UseRealTime()->Unit(benchmark::kMillisecond);
-BENCHMARK(sweep_quasi_steady_hover_10000)->Arg(1)->Arg(2)->Iterations(1)->UseRealTime()->Unit(benchmark::kSecond);
-BENCHMARK(sweep_wagner_hover_1000)->Arg(1)->Arg(2)->Iterations(1)->UseRealTime()->Unit(benchmark::kSecond);
+BENCHMARK(sweep_quasi_steady_hover_10000)
+    ->Arg(1)
+    ->Arg(2)
+    ->Iterations(1)
+    ->UseRealTime()
+    ->Unit(benchmark::kSecond);
+BENCHMARK(sweep_wagner_hover_1000)
+    ->Arg(1)
+    ->Arg(2)
+    ->Iterations(1)
+    ->UseRealTime()
+    ->Unit(benchmark::kSecond);
 BENCHMARK(lifting_line_hover)->Unit(benchmark::kMillisecond);
 BENCHMARK(lifting_line_forward)->Unit(benchmark::kMillisecond);
 BENCHMARK(lifting_line_assemble_k)->Unit(benchmark::kMicrosecond);
@@ -241,13 +263,28 @@ BENCHMARK(quasi_steady_hover)->Unit(benchmark::kMillisecond);
 BENCHMARK(quasi_steady_forward)->Unit(benchmark::kMillisecond);
 BENCHMARK(wagner_hover)->Unit(benchmark::kMillisecond);
 BENCHMARK(wagner_forward)->Unit(benchmark::kMillisecond);
-BENCHMARK(hover_uniform_quasi_steady)->Arg(20)->Arg(40)->Arg(100)->Arg(200)->Unit(benchmark::kMillisecond);
-BENCHMARK(hover_uniform_wagner)->Arg(20)->Arg(40)->Arg(100)->Arg(200)->Unit(benchmark::kMillisecond);
+BENCHMARK(hover_uniform_quasi_steady)
+    ->Arg(20)
+    ->Arg(40)
+    ->Arg(100)
+    ->Arg(200)
+    ->Unit(benchmark::kMillisecond);
+BENCHMARK(hover_uniform_wagner)
+    ->Arg(20)
+    ->Arg(40)
+    ->Arg(100)
+    ->Arg(200)
+    ->Unit(benchmark::kMillisecond);
 BENCHMARK(hover_uniform_lifting_line)->Arg(20)->Arg(40)->Unit(benchmark::kMillisecond);
 BENCHMARK(hover_uniform_lifting_line)->Arg(100)->Arg(200)->Iterations(1)->Unit(benchmark::kSecond);
 // Cosine strips (the default) on the beta planform need the exponential integrator (the default):
 // earlier versions refuse these cases at 400 steps.
-BENCHMARK(hover_cosine_quasi_steady)->Arg(20)->Arg(40)->Arg(100)->Arg(200)->Unit(benchmark::kMillisecond);
+BENCHMARK(hover_cosine_quasi_steady)
+    ->Arg(20)
+    ->Arg(40)
+    ->Arg(100)
+    ->Arg(200)
+    ->Unit(benchmark::kMillisecond);
 BENCHMARK(hover_cosine_wagner)->Arg(20)->Arg(40)->Arg(100)->Arg(200)->Unit(benchmark::kMillisecond);
 BENCHMARK(hover_cosine_lifting_line)->Arg(20)->Arg(40)->Unit(benchmark::kMillisecond);
 BENCHMARK(hover_cosine_lifting_line)->Arg(100)->Arg(200)->Iterations(1)->Unit(benchmark::kSecond);

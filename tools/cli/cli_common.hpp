@@ -23,7 +23,8 @@ inline const char* const kNoGnuplot =
 class Progress {
  public:
   Progress(bool quiet, std::string label)
-      : enabled_(!quiet && ::isatty(STDERR_FILENO)), label_(std::move(label)),
+      : enabled_(!quiet && ::isatty(STDERR_FILENO)),
+        label_(std::move(label)),
         start_(std::chrono::steady_clock::now()) {}
   ~Progress() { done(); }
   RunControl control() {
@@ -34,8 +35,8 @@ class Progress {
             std::chrono::duration<double>(std::chrono::steady_clock::now() - start_).count();
         if (elapsed < 1.0) return;
         if (std::isfinite(change))
-          std::fprintf(stderr, "\r%s: cycle %d, change of the cycle means %.2e   ",
-                       label_.c_str(), cycles, change);
+          std::fprintf(stderr, "\r%s: cycle %d, change of the cycle means %.2e   ", label_.c_str(),
+                       cycles, change);
         else
           std::fprintf(stderr, "\r%s: cycle %d   ", label_.c_str(), cycles);
         shown_ = true;
@@ -59,8 +60,11 @@ class StudyProgress {
  public:
   /// `resumed`: cases already done before this process started (not timed here).
   StudyProgress(bool quiet, std::string label, std::size_t total, std::size_t resumed = 0)
-      : enabled_(!quiet && ::isatty(STDERR_FILENO)), label_(std::move(label)), total_(total),
-        resumed_(resumed), start_(std::chrono::steady_clock::now()) {}
+      : enabled_(!quiet && ::isatty(STDERR_FILENO)),
+        label_(std::move(label)),
+        total_(total),
+        resumed_(resumed),
+        start_(std::chrono::steady_clock::now()) {}
   ~StudyProgress() { done(); }
   void update(std::size_t finished, std::size_t failed) {
     if (!enabled_) return;
@@ -69,9 +73,9 @@ class StudyProgress {
     last_ = now;
     const double elapsed = std::chrono::duration<double>(now - start_).count();
     const std::size_t here = finished > resumed_ ? finished - resumed_ : 0;
-    const double left = here > 0 ? elapsed * static_cast<double>(total_ - finished) /
-                                       static_cast<double>(here)
-                                 : 0.0;
+    const double left =
+        here > 0 ? elapsed * static_cast<double>(total_ - finished) / static_cast<double>(here)
+                 : 0.0;
     std::fprintf(stderr, "\r%s: %zu / %zu cases, %zu failed, %s elapsed, %s left   ",
                  label_.c_str(), finished, total_, failed, clock(elapsed).c_str(),
                  here > 0 ? clock(left).c_str() : "--:--");

@@ -64,12 +64,13 @@ studies::Parameter key_parameter(const io::CaseLoader& loader, const std::string
       (void)loader.build(studies::CaseSpec{{{key, studies::shortest(v), false}}});
     } catch (const InputError& e) {
       if (e.is_between_keys() || (e.key() != key && key.rfind(e.key() + ".", 0) != 0)) continue;
-      InputError up = v == p.base
-                          ? e.rekeyed(e.key())
-                          : InputError(key, studies::shortest(p.base),
-                                       "must be a continuous number to be " +
-                                           std::string(option == "--free" ? "trimmed" : "differentiated") +
-                                           " (" + e.allowed() + ")");
+      InputError up =
+          v == p.base
+              ? e.rekeyed(e.key())
+              : InputError(key, studies::shortest(p.base),
+                           "must be a continuous number to be " +
+                               std::string(option == "--free" ? "trimmed" : "differentiated") +
+                               " (" + e.allowed() + ")");
       up.locate("command line (" + option + " " + key + ")", 0);
       throw up;
     }
@@ -129,12 +130,12 @@ int trim_command(const TrimArgs& a) {
       throw InputError("--free", "'" + f + "'", "must be KEY=LO:HI, e.g. gait.frequency=15:40");
     const std::string key = f.substr(0, eq);
     for (const auto& p : free)
-      if (p.name == key) throw InputError("--free " + key, "'" + f + "'", "each key may be free once");
+      if (p.name == key)
+        throw InputError("--free " + key, "'" + f + "'", "each key may be free once");
     studies::Parameter p = key_parameter(loader, key, "--free");
     p.low = parse_number(f.substr(eq + 1, colon - eq - 1), "--free " + key, f);
     p.high = parse_number(f.substr(colon + 1), "--free " + key, f);
-    if (!(p.low < p.high))
-      throw InputError("--free " + key, "'" + f + "'", "needs LO < HI");
+    if (!(p.low < p.high)) throw InputError("--free " + key, "'" + f + "'", "needs LO < HI");
     if (!(p.base >= p.low && p.base <= p.high))
       throw InputError("--free " + key, studies::shortest(p.base),
                        "the start (the config's value) must lie within " + f.substr(eq + 1),
@@ -147,11 +148,13 @@ int trim_command(const TrimArgs& a) {
   for (const std::string& t : a.targets) {
     const auto eq = t.find('=');
     if (eq == std::string::npos)
-      throw InputError("--target", "'" + t + "'", "must be QUANTITY=VALUE, e.g. cycle_mean.lift_N=0.02");
+      throw InputError("--target", "'" + t + "'",
+                       "must be QUANTITY=VALUE, e.g. cycle_mean.lift_N=0.02");
     studies::Target tg{t.substr(0, eq), parse_number(t.substr(eq + 1), "--target", t)};
     if (!find_summary_key(tg.quantity))
       throw InputError("--target", "'" + tg.quantity + "'",
-                       "unknown quantity: a key path of summary.json", summary_key_hint(tg.quantity));
+                       "unknown quantity: a key path of summary.json",
+                       summary_key_hint(tg.quantity));
     targets.push_back(tg);
   }
   const ModelSpec base_spec = loader.spec({});
@@ -173,11 +176,13 @@ int trim_command(const TrimArgs& a) {
     options.on_iteration = [](int it, double r) {
       std::fprintf(stderr, "\rtrim: iteration %d, scaled residual %.3e   ", it, r);
     };
-  const studies::TrimResult r = studies::trim(free, targets, {}, io::case_builders(loader), options);
+  const studies::TrimResult r =
+      studies::trim(free, targets, {}, io::case_builders(loader), options);
   if (tty) std::fprintf(stderr, "\r%*s\r", 60, "");
 
-  const fs::path dir = a.out.empty() ? fs::path("results") / (fs::path(a.config).stem().string() + "_trim")
-                                     : fs::path(a.out);
+  const fs::path dir = a.out.empty()
+                           ? fs::path("results") / (fs::path(a.config).stem().string() + "_trim")
+                           : fs::path(a.out);
   io::OutputFolder folder(dir);
   folder.add("trim.json", io::trim_json(r, free, a.tolerance, kInnerRunsText));
   std::string plot_note;
@@ -195,13 +200,15 @@ int trim_command(const TrimArgs& a) {
   }
   folder.commit();
   if (!a.quiet) {
-    std::printf("flapline trim: %s (%s)\n", std::string(to_string(r.status)).c_str(), r.message.c_str());
+    std::printf("flapline trim: %s (%s)\n", std::string(to_string(r.status)).c_str(),
+                r.message.c_str());
     for (std::size_t i = 0; i < free.size() && r.values.size(); ++i)
       std::printf("  %-36s %.10g   (start %.6g, bounds %.6g .. %.6g)\n", free[i].name.c_str(),
                   r.values(static_cast<Eigen::Index>(i)), free[i].base, free[i].low, free[i].high);
     for (std::size_t i = 0; i < r.quantities.size() && r.achieved.size(); ++i)
       std::printf("  %-36s %.8g (target %.8g)\n", r.quantities[i].c_str(),
-                  r.achieved(static_cast<Eigen::Index>(i)), r.targets(static_cast<Eigen::Index>(i)));
+                  r.achieved(static_cast<Eigen::Index>(i)),
+                  r.targets(static_cast<Eigen::Index>(i)));
     std::printf("  %d iterations, %d runs\n", r.iterations, r.runs);
     if (!r.active_bounds.empty()) {
       std::string b;
@@ -246,7 +253,8 @@ studies::DerivativeTable derivative_table(const DerivativesArgs& a, const io::Ca
   if (a.flight) params = studies::Parameter::flight_state();
   for (const std::string& k : a.params) {
     for (const auto& p : params)
-      if (p.name == k) throw InputError("--param " + k, "'" + k + "'", "each key may be given once");
+      if (p.name == k)
+        throw InputError("--param " + k, "'" + k + "'", "each key may be given once");
     params.push_back(key_parameter(loader, k, "--param"));
   }
   if (params.empty())
@@ -277,9 +285,9 @@ int derivatives_command(const DerivativesArgs& a) {
   std::vector<studies::Parameter> params;
   const studies::DerivativeTable t =
       derivative_table(a, loader, studies::derivative_quantities(), params);
-  const fs::path dir = a.out.empty()
-                           ? fs::path("results") / (fs::path(a.config).stem().string() + "_derivatives")
-                           : fs::path(a.out);
+  const fs::path dir =
+      a.out.empty() ? fs::path("results") / (fs::path(a.config).stem().string() + "_derivatives")
+                    : fs::path(a.out);
   io::OutputFolder folder(dir);
   folder.add("derivatives.csv", io::derivatives_csv(t));
   folder.add("derivatives.json", io::derivatives_json(t));
@@ -287,9 +295,10 @@ int derivatives_command(const DerivativesArgs& a) {
     for (auto& [name, content] : io::derivative_plots(t, "derivatives")) folder.add(name, content);
   folder.commit();
   if (!a.quiet) {
-    std::printf("flapline derivatives: %zu quantities x %zu parameters, %d runs "
-                "(quantity unit per parameter unit; * = Richardson estimate above 1 %%)\n",
-                t.quantities.size(), t.parameters.size(), t.runs);
+    std::printf(
+        "flapline derivatives: %zu quantities x %zu parameters, %d runs "
+        "(quantity unit per parameter unit; * = Richardson estimate above 1 %%)\n",
+        t.quantities.size(), t.parameters.size(), t.runs);
     print_table(t);
     std::cout << "results: " << dir.string() << "/ (derivatives.csv, derivatives.json)\n";
     std::cout << kCautions << "\n";
@@ -307,12 +316,14 @@ int modes_command(const DerivativesArgs& a) {
   std::vector<studies::Parameter> controls;
   for (const std::string& k : a.params) {
     for (const auto& p : controls)
-      if (p.name == k) throw InputError("--param " + k, "'" + k + "'", "each key may be given once");
+      if (p.name == k)
+        throw InputError("--param " + k, "'" + k + "'", "each key may be given once");
     controls.push_back(key_parameter(loader, k, "--param"));
   }
   studies::RunnerOptions options;
   options.threads = a.threads;
-  const studies::ModesStudy study = studies::modes_study(base, controls, io::case_builders(loader), options);
+  const studies::ModesStudy study =
+      studies::modes_study(base, controls, io::case_builders(loader), options);
   const studies::DerivativeTable& t = study.derivatives;
   const studies::LinearModel& lm = study.linear;
   const std::vector<studies::Mode>& modes = study.modes;
@@ -322,9 +333,9 @@ int modes_command(const DerivativesArgs& a) {
     inputs.push_back(p.name);
     input_units.push_back(io::parameter_unit(p));
   }
-  const fs::path dir =
-      a.out.empty() ? fs::path("results") / (fs::path(a.config).stem().string() + "_modes")
-                    : fs::path(a.out);
+  const fs::path dir = a.out.empty()
+                           ? fs::path("results") / (fs::path(a.config).stem().string() + "_modes")
+                           : fs::path(a.out);
   io::OutputFolder folder(dir);
   folder.add("modes.json", io::modes_json(lm, inputs, input_units, modes, warnings));
   folder.add("derivatives.csv", io::derivatives_csv(t));
@@ -338,8 +349,10 @@ int modes_command(const DerivativesArgs& a) {
     std::printf("flapline modes: %zu modes of the wing-beat-averaged dynamics\n", modes.size());
     for (const auto& m : modes) {
       if (m.oscillatory)
-        std::printf("  %-12s oscillatory  lambda = %.5g +/- %.5gi  (wn %.4g rad/s, zeta %.3g, period %.4g s)",
-                    m.family.c_str(), m.real, m.imag, m.natural_frequency, m.damping_ratio, m.period);
+        std::printf(
+            "  %-12s oscillatory  lambda = %.5g +/- %.5gi  (wn %.4g rad/s, zeta %.3g, period %.4g "
+            "s)",
+            m.family.c_str(), m.real, m.imag, m.natural_frequency, m.damping_ratio, m.period);
       else
         std::printf("  %-12s real         lambda = %.5g", m.family.c_str(), m.real);
       if (m.time_to_half > 0) std::printf("  half in %.4g s", m.time_to_half);
@@ -349,7 +362,8 @@ int modes_command(const DerivativesArgs& a) {
       std::printf("  [%s]\n", d.c_str());
     }
     for (const auto& w : warnings) std::cout << "warning: " << w << "\n";
-    std::cout << "results: " << dir.string() << "/ (modes.json, derivatives.csv, derivatives.json)\n";
+    std::cout << "results: " << dir.string()
+              << "/ (modes.json, derivatives.csv, derivatives.json)\n";
     std::cout << kCautions << "\n";
   }
   return 0;

@@ -15,6 +15,7 @@
 #include <string>
 #include <vector>
 
+#include "cli_common.hpp"
 #include "flapline/aero/lifting_line.hpp"
 #include "flapline/common/errors.hpp"
 #include "flapline/io/comparison.hpp"
@@ -22,11 +23,10 @@
 #include "flapline/io/plots.hpp"
 #include "flapline/io/run_plots.hpp"
 #include "flapline/io/writers.hpp"
-#include "flapline/studies/runner.hpp"
 #include "flapline/simulation/integrate.hpp"
+#include "flapline/studies/runner.hpp"
 #include "flapline/validation/validation.hpp"
 #include "flapline/version.hpp"
-#include "cli_common.hpp"
 #include "local_studies.hpp"
 #include "sweep.hpp"
 
@@ -65,7 +65,8 @@ int run_command(const RunArgs& a) {
     throw InputError("--state-space", format_number(*a.state_space_time),
                      "needs a model with states: model.kind wagner or lifting_line");
   const RunSummary summary = run_model(model, a.config, a.sets, a.quiet);
-  const fs::path dir = a.out.empty() ? fs::path("results") / fs::path(a.config).stem() : fs::path(a.out);
+  const fs::path dir =
+      a.out.empty() ? fs::path("results") / fs::path(a.config).stem() : fs::path(a.out);
   io::OutputFolder folder(dir);
   folder.add("history.csv", io::history_csv(summary));
   folder.add("summary.json", io::summary_json(summary, a.config));
@@ -86,7 +87,8 @@ int run_command(const RunArgs& a) {
   folder.commit();
   if (!a.quiet) {
     std::cout << (a.full ? summary.full_report() : summary.brief_report());
-    std::cout << "results: " << dir.string() << "/ (history.csv, summary.json, spanwise.csv, drive.csv"
+    std::cout << "results: " << dir.string()
+              << "/ (history.csv, summary.json, spanwise.csv, drive.csv"
               << (a.state_space_time ? ", state_space.json" : "")
               << (a.plot && plot_note.empty() ? ", figures *.png and *.svg" : "") << ")\n";
     if (!plot_note.empty()) std::cout << plot_note << "\n";
@@ -138,7 +140,8 @@ int compare_command(const CompareArgs& a) {
   common.push_back("model.kind=" + kind);
   common.push_back("wing.strips=" + std::to_string(strips));
   common.push_back("simulation.steps_per_cycle=" + std::to_string(steps));
-  common.push_back("simulation.samples_per_cycle=" + std::to_string(first.simulation.samples_per_cycle));
+  common.push_back("simulation.samples_per_cycle=" +
+                   std::to_string(first.simulation.samples_per_cycle));
   std::vector<io::CaseLoader> loaders;
   std::vector<studies::CaseSpec> specs;
   std::vector<std::string> names;
@@ -159,7 +162,8 @@ int compare_command(const CompareArgs& a) {
     try {
       (void)loaders[specs[c].source].build(specs[c]);
     } catch (InputError& e) {
-      if (e.file().rfind("case (", 0) == 0) e.locate("command line (--variant " + names[c] + ")", 0);
+      if (e.file().rfind("case (", 0) == 0)
+        e.locate("command line (--variant " + names[c] + ")", 0);
       throw;
     }
   }
@@ -193,10 +197,10 @@ int compare_command(const CompareArgs& a) {
     }
     cases.push_back({names[c], results[c]});
   }
-  const std::string settings =
-      "Every case run with model " + kind + ", " + std::to_string(strips) + " strips per wing, " +
-      std::to_string(steps) + " steps and " + std::to_string(first.simulation.samples_per_cycle) +
-      " samples per cycle; cycle means of the last cycle.";
+  const std::string settings = "Every case run with model " + kind + ", " + std::to_string(strips) +
+                               " strips per wing, " + std::to_string(steps) + " steps and " +
+                               std::to_string(first.simulation.samples_per_cycle) +
+                               " samples per cycle; cycle means of the last cycle.";
   const fs::path dir = a.out.empty() ? fs::path("results") / "comparison" : fs::path(a.out);
   io::OutputFolder folder(dir);
   folder.add("comparison.csv", io::comparison_csv(cases));
@@ -242,7 +246,8 @@ struct ValidateArgs {
 };
 
 int validate_command(const ValidateArgs& a) {
-  const fs::path dir = a.cases_dir.empty() ? validation::default_cases_dir() : fs::path(a.cases_dir);
+  const fs::path dir =
+      a.cases_dir.empty() ? validation::default_cases_dir() : fs::path(a.cases_dir);
   const std::vector<validation::CaseSpec> cases = validation::load_cases(dir, a.only);
   std::vector<validation::CaseResult> results;
   const bool plots = a.plot && io::gnuplot_available();
@@ -258,8 +263,8 @@ int validate_command(const ValidateArgs& a) {
     all_ok = all_ok && r.ok();
     if (plots)
       for (std::size_t f = 0; f < r.figures.size(); ++f)
-        for (auto& [name, content] :
-             io::render(r.figures[f], spec.name + (f == 0 ? std::string() : "_" + std::to_string(f + 1))))
+        for (auto& [name, content] : io::render(
+                 r.figures[f], spec.name + (f == 0 ? std::string() : "_" + std::to_string(f + 1))))
           folder.add(name, content);
     if (!a.quiet) {
       const long ok = std::count_if(r.checks.begin(), r.checks.end(),
@@ -278,14 +283,16 @@ int validate_command(const ValidateArgs& a) {
       std::string(plots    ? "One figure per case beside this report."
                   : a.plot ? std::string(kNoGnuplot) + "."
                            : "Figures not requested.") +
-      (a.integrator.empty() ? " Lag states stepped with each case's integrator (default exponential)."
-                            : " Lag states stepped with simulation.integrator = " + a.integrator +
-                                  " in every case.");
+      (a.integrator.empty()
+           ? " Lag states stepped with each case's integrator (default exponential)."
+           : " Lag states stepped with simulation.integrator = " + a.integrator +
+                 " in every case.");
   folder.add("report.md", validation::report_markdown(results, note));
   folder.commit();
   if (!a.quiet)
-    std::cout << (all_ok ? "all validation checks pass" : "VALIDATION FAILED") << "; report: "
-              << (out / "report.md").string() << (plots ? "" : " (" + note + ")") << "\n";
+    std::cout << (all_ok ? "all validation checks pass" : "VALIDATION FAILED")
+              << "; report: " << (out / "report.md").string() << (plots ? "" : " (" + note + ")")
+              << "\n";
   return all_ok ? 0 : kExitValidation;
 }
 
@@ -307,9 +314,10 @@ int main(int argc, char** argv) {
   cmd_run->add_flag("-q,--quiet", run.quiet, "Print nothing on success (and no progress)");
   cmd_run->add_flag("--full", run.full, "Print the full report instead of the short one");
   add_plot_flags(cmd_run, run.plot, "Render figures");
-  cmd_run->add_option("--state-space", run.state_space_time,
-                      "Also write state_space.json: the frozen-time A, B, C, D of the lag states "
-                      "at time T (s)")
+  cmd_run
+      ->add_option("--state-space", run.state_space_time,
+                   "Also write state_space.json: the frozen-time A, B, C, D of the lag states "
+                   "at time T (s)")
       ->check(CLI::Validator(
           [](std::string& v) {
             try {
@@ -324,22 +332,28 @@ int main(int argc, char** argv) {
   CompareArgs cmp;
   CLI::App* cmd_cmp = app.add_subcommand(
       "compare", "Run several cases with the same model and resolution; tabulate and overlay them");
-  cmd_cmp->add_option("configs", cmp.configs,
-                      "Two or more YAML case files, or one with --variant sets")
+  cmd_cmp
+      ->add_option("configs", cmp.configs,
+                   "Two or more YAML case files, or one with --variant sets")
       ->required()
       ->expected(1, -1);
-  cmd_cmp->add_option("--variant", cmp.variants,
-                      "Compare variants of one config: key.path=value pairs separated by ';' "
-                      "(repeat for each variant)")
+  cmd_cmp
+      ->add_option("--variant", cmp.variants,
+                   "Compare variants of one config: key.path=value pairs separated by ';' "
+                   "(repeat for each variant)")
       ->take_all();
   cmd_cmp->add_option("--threads", cmp.threads, "Worker threads (default: the cores available)")
       ->check(CLI::Range(1, 4096));
   cmd_cmp->add_option("-o,--out", cmp.out, "Output folder (default: results/comparison)");
   cmd_cmp->add_option("--model", cmp.model, "Model for every case (default: the first config's)")
       ->check(CLI::IsMember({"quasi_steady", "wagner", "lifting_line"}));
-  cmd_cmp->add_option("--strips", cmp.strips, "Strips per wing for every case (default: the first config's)")
+  cmd_cmp
+      ->add_option("--strips", cmp.strips,
+                   "Strips per wing for every case (default: the first config's)")
       ->check(CLI::Range(1, 400));
-  cmd_cmp->add_option("--steps", cmp.steps, "Steps per cycle for every case (default: the first config's)")
+  cmd_cmp
+      ->add_option("--steps", cmp.steps,
+                   "Steps per cycle for every case (default: the first config's)")
       ->check(CLI::Range(20, 100000));
   cmd_cmp->add_option("--set", cmp.sets, "Override a key in every config")->take_all();
   cmd_cmp->add_flag("-q,--quiet", cmp.quiet, "Print nothing on success");
@@ -348,13 +362,16 @@ int main(int argc, char** argv) {
   SweepArgs sw;
   CLI::App* cmd_sweep = app.add_subcommand(
       "sweep", "Run a design of cases over config keys; one table row per case (sweep.csv)");
-  cmd_sweep->add_option("config", sw.config, "YAML base case (keys: configs/README.md)")->required();
-  cmd_sweep->add_option("--vary", sw.vary,
-                        "KEY=VALUES: a list a,b,c, a range start:stop:count or "
-                        "log:start:stop:count (repeat for more keys)")
+  cmd_sweep->add_option("config", sw.config, "YAML base case (keys: configs/README.md)")
+      ->required();
+  cmd_sweep
+      ->add_option("--vary", sw.vary,
+                   "KEY=VALUES: a list a,b,c, a range start:stop:count or "
+                   "log:start:stop:count (repeat for more keys)")
       ->take_all();
   cmd_sweep->add_option("--design", sw.design, "grid (default), one_at_a_time or latin");
-  cmd_sweep->add_option("--samples", sw.samples, "Samples of a latin design")->check(CLI::Range(1, 100000000));
+  cmd_sweep->add_option("--samples", sw.samples, "Samples of a latin design")
+      ->check(CLI::Range(1, 100000000));
   cmd_sweep->add_option("--seed", sw.seed, "Seed of a latin design (default 1)")
       ->check(CLI::Range(std::uint64_t{0}, std::uint64_t{9007199254740992ull}));
   cmd_sweep->add_option("--cases", sw.cases_file,
@@ -371,7 +388,9 @@ int main(int argc, char** argv) {
   MergeArgs mg;
   CLI::App* cmd_merge = app.add_subcommand(
       "merge", "Join the shard folders of one sweep into the table of an unsharded run");
-  cmd_merge->add_option("shards", mg.shards, "The shard folders (all N of them)")->required()->expected(1, -1);
+  cmd_merge->add_option("shards", mg.shards, "The shard folders (all N of them)")
+      ->required()
+      ->expected(1, -1);
   cmd_merge->add_option("-o,--out", mg.out, "Output folder (default: results/merged_sweep)");
   cmd_merge->add_flag("-q,--quiet", mg.quiet, "Print nothing on success");
   add_plot_flags(cmd_merge, mg.plot, "Sweep figures");
@@ -380,12 +399,15 @@ int main(int argc, char** argv) {
   CLI::App* cmd_trim = app.add_subcommand(
       "trim", "Find the free key values that meet targets or balance the vehicle in steady flight");
   cmd_trim->add_option("config", tr.config, "YAML case file")->required();
-  cmd_trim->add_option("--free", tr.frees, "KEY=LO:HI: a free key and its bounds (repeat)")->take_all();
-  cmd_trim->add_option("--target", tr.targets,
-                       "QUANTITY=VALUE: a summary.json key path and its target (repeat)")
+  cmd_trim->add_option("--free", tr.frees, "KEY=LO:HI: a free key and its bounds (repeat)")
+      ->take_all();
+  cmd_trim
+      ->add_option("--target", tr.targets,
+                   "QUANTITY=VALUE: a summary.json key path and its target (repeat)")
       ->take_all();
   cmd_trim->add_flag("--balance", tr.balance, "Steady flight of the vehicle instead of targets");
-  cmd_trim->add_option("--tolerance", tr.tolerance, "Scaled residual RMS for 'trimmed' (default 1e-6)");
+  cmd_trim->add_option("--tolerance", tr.tolerance,
+                       "Scaled residual RMS for 'trimmed' (default 1e-6)");
   cmd_trim->add_option("--threads", tr.threads, "Worker threads (default: the cores available)")
       ->check(CLI::Range(1, 4096));
   cmd_trim->add_option("-o,--out", tr.out, "Output folder (default: results/<config name>_trim)");
@@ -398,7 +420,8 @@ int main(int argc, char** argv) {
       "derivatives", "Control and stability derivatives of the cycle-mean forces, moments, power");
   CLI::App* cmd_modes = app.add_subcommand(
       "modes", "Wing-beat-averaged flight dynamics: linear model, eigenvalues and modes");
-  for (auto [cmd, args] : {std::pair<CLI::App*, DerivativesArgs*>{cmd_der, &dv}, {cmd_modes, &md}}) {
+  for (auto [cmd, args] :
+       {std::pair<CLI::App*, DerivativesArgs*>{cmd_der, &dv}, {cmd_modes, &md}}) {
     cmd->add_option("config", args->config, "YAML case file")->required();
     cmd->add_option("--param", args->params, "A gait or config key to differentiate by (repeat)")
         ->take_all();
@@ -417,10 +440,12 @@ int main(int argc, char** argv) {
       "validate", "Run the validation cases against classical results and write report.md");
   cmd_val->add_option("-o,--out", val.out, "Output folder (default: results/validation)");
   cmd_val->add_option("--case", val.only, "Run only this case");
-  cmd_val->add_option("--cases-dir", val.cases_dir, "Folder of case folders (default: the built-in one)");
-  cmd_val->add_option("--integrator", val.integrator,
-                      "Step the lag states with this integrator in every case (default: each "
-                      "case's own, i.e. the default exponential)")
+  cmd_val->add_option("--cases-dir", val.cases_dir,
+                      "Folder of case folders (default: the built-in one)");
+  cmd_val
+      ->add_option("--integrator", val.integrator,
+                   "Step the lag states with this integrator in every case (default: each "
+                   "case's own, i.e. the default exponential)")
       ->check(CLI::IsMember({"exponential", "rk4"}));
   cmd_val->add_flag("-q,--quiet", val.quiet, "Print nothing");
   add_plot_flags(cmd_val, val.plot, "One figure per case");

@@ -79,7 +79,8 @@ int sweep_command(const SweepArgs& a) {
       kind && *kind != studies::DesignKind::table)
     def.design.kind = *kind;
   else
-    throw InputError("--design", "'" + a.design + "'", "must be one of: grid, one_at_a_time, latin");
+    throw InputError("--design", "'" + a.design + "'",
+                     "must be one of: grid, one_at_a_time, latin");
   if (def.design.kind != studies::DesignKind::latin && a.samples > 0)
     throw InputError("--samples", std::to_string(a.samples), "applies to --design latin only");
   def.design.samples = a.samples;
@@ -176,8 +177,8 @@ int lead_sweep(const SweepArgs& a, const io::SweepDefinition& def, const io::Sha
     if (distributed) {
 #ifdef FLAPLINE_WITH_MPI
       studies::mpi::distribute(
-          *static_cast<studies::mpi::Session*>(mpi_session), def.cases, todo, io::case_builders(loader),
-          options,
+          *static_cast<studies::mpi::Session*>(mpi_session), def.cases, todo,
+          io::case_builders(loader), options,
           [&](std::size_t i, const RunSummary& s) {
             return studies::table_row(i, def.columns, def.cases[i], s);
           },
@@ -202,12 +203,12 @@ int lead_sweep(const SweepArgs& a, const io::SweepDefinition& def, const io::Sha
   folder.finish(a.plot, &plot_note);
   if (!a.quiet) {
     std::cout << "flapline sweep: " << owned << " cases"
-              << (shard.count > 1 ? " (shard " + a.shard + " of " + std::to_string(def.cases.size()) +
-                                        ")"
-                                  : std::string())
+              << (shard.count > 1
+                      ? " (shard " + a.shard + " of " + std::to_string(def.cases.size()) + ")"
+                      : std::string())
               << ", " << (owned - failed) << " converged, " << failed
-              << " failed or not converged; " << threads << " thread"
-              << (threads == 1 ? "" : "s") << (distributed ? " per worker rank" : "") << "\n";
+              << " failed or not converged; " << threads << " thread" << (threads == 1 ? "" : "s")
+              << (distributed ? " per worker rank" : "") << "\n";
     std::cout << "results: " << folder.dir().string() << "/ (sweep.csv, sweep.json"
               << (a.plot && plot_note.empty() ? ", figures" : "") << ")\n";
     if (!plot_note.empty()) std::cout << plot_note << "\n";

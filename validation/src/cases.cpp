@@ -88,8 +88,12 @@ void iso2533_density(Context& c) {
   }
   std::vector<double> hs = range(-2000, 11000, 52), rs;
   for (double x : hs) rs.push_back(c.model({"air.altitude=" + fmt("%.6g", x)}).air().density);
-  io::Plot p{"ISO 2533 standard atmosphere", "geopotential altitude (m)", "air density (kg/m^3)",
-             "", "line: flapline; points: the standard's table", {}};
+  io::Plot p{"ISO 2533 standard atmosphere",
+             "geopotential altitude (m)",
+             "air density (kg/m^3)",
+             "",
+             "line: flapline; points: the standard's table",
+             {}};
   p.series = {line("flapline", hs, rs, 1), points("ISO 2533 table", h, rho, 2)};
   c.out.figures.push_back(p);
 }
@@ -108,17 +112,20 @@ void revolving_wing(Context& c) {
     Overrides set;
     std::function<double(double)> cl;
   };
-  const Law laws[] = {
-      {"thin_airfoil_suction", "thin airfoil, full suction: 2π sin α",
-       {"model.coefficient_law=thin_airfoil", "model.suction_recovery=1"},
-       [](double a) { return 2 * kPi * std::sin(a); }},
-      {"thin_airfoil_no_suction", "thin airfoil, no suction: 2π sin α cos²α",
-       {"model.coefficient_law=thin_airfoil", "model.suction_recovery=0"},
-       [](double a) { return 2 * kPi * std::sin(a) * std::cos(a) * std::cos(a); }},
-      {"revolving_fit", "revolving-wing fit (Dickinson, Lehmann & Sane 1999)",
-       {"model.coefficient_law=revolving_fit"}, [&fit](double a) { return fit.lift_coefficient(a); }}};
-  io::Plot p{"Revolving wing: lift coefficient against the closed forms", "pitch (deg)",
-             "lift coefficient C_L = L / (0.5 rho Omega^2 int c r^2 dr)", "",
+  const Law laws[] = {{"thin_airfoil_suction",
+                       "thin airfoil, full suction: 2π sin α",
+                       {"model.coefficient_law=thin_airfoil", "model.suction_recovery=1"},
+                       [](double a) { return 2 * kPi * std::sin(a); }},
+                      {"thin_airfoil_no_suction",
+                       "thin airfoil, no suction: 2π sin α cos²α",
+                       {"model.coefficient_law=thin_airfoil", "model.suction_recovery=0"},
+                       [](double a) { return 2 * kPi * std::sin(a) * std::cos(a) * std::cos(a); }},
+                      {"revolving_fit",
+                       "revolving-wing fit (Dickinson, Lehmann & Sane 1999)",
+                       {"model.coefficient_law=revolving_fit"},
+                       [&fit](double a) { return fit.lift_coefficient(a); }}};
+  io::Plot p{"Revolving wing: lift coefficient against the closed forms",     "pitch (deg)",
+             "lift coefficient C_L = L / (0.5 rho Omega^2 int c r^2 dr)",     "",
              "lines: closed forms; points: flapline (right wing, 40 strips)", {}};
   int lt = 1;
   for (const Law& law : laws) {
@@ -175,8 +182,12 @@ void wagner_step(Context& c) {
     ex.push_back(ref::wagner(s));
     jx.push_back(ref::wagner_fit(s, w.a1, w.a2, w.b1, w.b2));
   }
-  io::Plot p{"Wagner's problem: circulation after a step in angle", "reduced time s = U t / b",
-             "Gamma(s) / Gamma(inf)", "", "2-D strip at constant speed (wagner model)", {}};
+  io::Plot p{"Wagner's problem: circulation after a step in angle",
+             "reduced time s = U t / b",
+             "Gamma(s) / Gamma(inf)",
+             "",
+             "2-D strip at constant speed (wagner model)",
+             {}};
   p.series = {line("exact Wagner function", sx, ex, 1), line("R.T. Jones fit", sx, jx, 2, true),
               points("flapline", s_f, phi_f, 3)};
   p.key = "bottom right";
@@ -221,12 +232,18 @@ void theodorsen(Context& c) {
   const Motion motions[] = {{"plunge", 0.25, true},
                             {"pitch about the quarter chord", 0.25, false},
                             {"pitch about mid-chord", 0.5, false}};
-  io::Plot amp_plot{"Theodorsen: lift amplitude of small harmonic motions", "reduced frequency k = omega b / U",
-                    "|C_l| per unit h/b or alpha (C_l = L / (rho U^2 b))", "",
-                    "lines: Theodorsen with exact C(k); points: flapline (wagner model)", {}};
-  io::Plot phase_plot{"Theodorsen: lift phase of small harmonic motions", "reduced frequency k = omega b / U",
-                      "phase of the lift against the motion (deg)", "",
-                      "lines: Theodorsen with exact C(k); points: flapline (wagner model)", {}};
+  io::Plot amp_plot{"Theodorsen: lift amplitude of small harmonic motions",
+                    "reduced frequency k = omega b / U",
+                    "|C_l| per unit h/b or alpha (C_l = L / (rho U^2 b))",
+                    "",
+                    "lines: Theodorsen with exact C(k); points: flapline (wagner model)",
+                    {}};
+  io::Plot phase_plot{"Theodorsen: lift phase of small harmonic motions",
+                      "reduced frequency k = omega b / U",
+                      "phase of the lift against the motion (deg)",
+                      "",
+                      "lines: Theodorsen with exact C(k); points: flapline (wagner model)",
+                      {}};
   amp_plot.log_x = phase_plot.log_x = true;
   int lt = 1;
   for (const Motion& m : motions) {
@@ -283,11 +300,11 @@ void garrick_plunge(Context& c) {
   for (double k : {0.1, 0.2, 0.5, 1.0, 2.0}) {
     const double omega = k * speed / b;
     const int cycles = static_cast<int>(std::ceil(600.0 / (2 * kPi / k))) + 1;
-    const Model model = c.model(
-        {"gait.plunge={shape: harmonic, amplitude: " + fmt("%.9g", h0) + ", phase: 90}",
-         "gait.frequency=" + fmt("%.12g", omega / (2 * kPi)),
-         "simulation.min_cycles=" + std::to_string(cycles),
-         "simulation.max_cycles=" + std::to_string(cycles)});
+    const Model model =
+        c.model({"gait.plunge={shape: harmonic, amplitude: " + fmt("%.9g", h0) + ", phase: 90}",
+                 "gait.frequency=" + fmt("%.12g", omega / (2 * kPi)),
+                 "simulation.min_cycles=" + std::to_string(cycles),
+                 "simulation.max_cycles=" + std::to_string(cycles)});
     const RunSummary r = simulate(model);
     const double span = 2 * model.planform().span();
     const double thrust = r.averages.mean.force.x() / span;
@@ -296,8 +313,10 @@ void garrick_plunge(Context& c) {
                                          ref::theodorsen_fit(k, w.a1, w.a2, w.b1, w.b2));
     const auto exact = ref::garrick_plunge(rho, b, omega, h0, speed, ref::theodorsen(k));
     const std::string tag = fmt("k = %.2f", k);
-    c.check("thrust_fit", tag + ": mean thrust per span (N/m), Garrick with C_J(k)", thrust, fit.thrust);
-    c.check("power_fit", tag + ": mean input power per span (W/m), Garrick with C_J(k)", power, fit.power);
+    c.check("thrust_fit", tag + ": mean thrust per span (N/m), Garrick with C_J(k)", thrust,
+            fit.thrust);
+    c.check("power_fit", tag + ": mean input power per span (W/m), Garrick with C_J(k)", power,
+            fit.power);
     c.check("thrust_exact", tag + ": mean thrust per span (N/m)", thrust, exact.thrust);
     c.check("power_exact", tag + ": mean input power per span (W/m)", power, exact.power);
     c.check("efficiency_exact", tag + ": propulsive efficiency T U / P", thrust * speed / power,
@@ -311,12 +330,15 @@ void garrick_plunge(Context& c) {
     e_exact.push_back(std::norm(ce) / ce.real());
     e_fit.push_back(std::norm(cj) / cj.real());
   }
-  io::Plot p{"Garrick: propulsive efficiency of a plunging wing", "reduced frequency k = omega b / U",
-             "propulsive efficiency T U / P (-)", "",
-             "Garrick 1936 with exact C(k) and with the Jones fit; points: flapline (wagner model)", {}};
+  io::Plot p{"Garrick: propulsive efficiency of a plunging wing",
+             "reduced frequency k = omega b / U",
+             "propulsive efficiency T U / P (-)",
+             "",
+             "Garrick 1936 with exact C(k) and with the Jones fit; points: flapline (wagner model)",
+             {}};
   p.log_x = true;
-  p.series = {line("Garrick, exact C(k)", kx, e_exact, 1), line("Garrick, C_J(k)", kx, e_fit, 2, true),
-              points("flapline", ks, effs, 3)};
+  p.series = {line("Garrick, exact C(k)", kx, e_exact, 1),
+              line("Garrick, C_J(k)", kx, e_fit, 2, true), points("flapline", ks, effs, 3)};
   c.out.figures.push_back(p);
 }
 
@@ -343,7 +365,8 @@ void elliptic_wing(Context& c) {
     const SteadyWing s = steady_wing(c, {"wing.root_chord=" + fmt("%.12g", 8.0 / (kPi * ar))});
     c.check("lift_slope", fmt("AR %.0f: lift slope (1/rad)", ar), s.lift_slope,
             ref::elliptic_lift_slope(2 * kPi, ar));
-    c.check("induced_drag", fmt("AR %.0f: C_Di / C_L^2", ar), s.cd / (s.cl * s.cl), 1.0 / (kPi * ar));
+    c.check("induced_drag", fmt("AR %.0f: C_Di / C_L^2", ar), s.cd / (s.cl * s.cl),
+            1.0 / (kPi * ar));
     ars.push_back(ar);
     slopes.push_back(s.lift_slope);
   }
@@ -353,8 +376,12 @@ void elliptic_wing(Context& c) {
     hb.push_back(ref::helmbold_lift_slope(2 * kPi, a));
     two.push_back(2 * kPi);
   }
-  io::Plot p{"Steady elliptic wing: lift slope against aspect ratio", "aspect ratio of the pair",
-             "lift slope (1/rad)", "", "lifting_line model, 40 cosine strips per wing", {}};
+  io::Plot p{"Steady elliptic wing: lift slope against aspect ratio",
+             "aspect ratio of the pair",
+             "lift slope (1/rad)",
+             "",
+             "lifting_line model, 40 cosine strips per wing",
+             {}};
   p.series = {line("Prandtl 2 pi / (1 + 2/AR)", ax, pr, 1),
               line("Helmbold (low AR, for comparison)", ax, hb, 2, true),
               line("2-D thin airfoil 2 pi", ax, two, 3, true), points("flapline", ars, slopes, 1)};
@@ -377,9 +404,14 @@ void rectangular_wing(Context& c) {
   }
   std::vector<double> ax = range(1.0, 12.0, 44), gl;
   for (double a : ax)
-    gl.push_back(ref::glauert_lifting_line([a](double) { return 2.0 / a; }, 2.0, 2 * kPi, 60).lift_slope);
-  io::Plot p{"Steady rectangular wing: lift slope against aspect ratio", "aspect ratio of the pair",
-             "lift slope (1/rad)", "", "lifting_line model, 40 cosine strips per wing", {}};
+    gl.push_back(
+        ref::glauert_lifting_line([a](double) { return 2.0 / a; }, 2.0, 2 * kPi, 60).lift_slope);
+  io::Plot p{"Steady rectangular wing: lift slope against aspect ratio",
+             "aspect ratio of the pair",
+             "lift slope (1/rad)",
+             "",
+             "lifting_line model, 40 cosine strips per wing",
+             {}};
   p.series = {line("Glauert's series solution", ax, gl, 1), points("flapline", ars, slopes, 2)};
   p.key = "bottom right";
   c.out.figures.push_back(p);
@@ -414,10 +446,14 @@ void impulsive_start(Context& c) {
     fin.push_back(final_ref / (2 * kPi));
   }
   io::Plot p{"Impulsive start of an elliptic wing (AR " + fmt("%.0f", ar) + ")",
-             "reduced time s = U t / b (mean chord)", "C_L / (2 pi alpha)", "",
+             "reduced time s = U t / b (mean chord)",
+             "C_L / (2 pi alpha)",
+             "",
              "the model's trailing legs exist from t = 0; R.T. Jones (1939) finds the finite wing "
-             "starting near the 2-D value", {}};
-  p.series = {points("flapline lifting line", s_f, cl_f, 1), line("Prandtl steady value", sx, fin, 2, true),
+             "starting near the 2-D value",
+             {}};
+  p.series = {points("flapline lifting line", s_f, cl_f, 1),
+              line("Prandtl steady value", sx, fin, 2, true),
               line("2-D: exact Wagner function", sx, two, 3)};
   p.key = "bottom right";
   c.out.figures.push_back(p);
@@ -427,23 +463,26 @@ void impulsive_start(Context& c) {
 void step_order(Context& c) {
   const int steps[] = {200, 400, 800};
   io::Plot p{"Step-size convergence of the mean lift in forward flight",
-             "steps per cycle", "log10 of the relative change of L from n to 800 steps", "",
-             "folding wing in forward flight; fourth order: 1.2 decades lower per doubling", {}};
+             "steps per cycle",
+             "log10 of the relative change of L from n to 800 steps",
+             "",
+             "folding wing in forward flight; fourth order: 1.2 decades lower per doubling",
+             {}};
   p.log_x = true;
   int lt = 1;
   for (const char* kind : {"wagner", "lifting_line"}) {
     std::vector<double> lift;
     for (int n : steps) {
-      const RunSummary r = simulate(c.model({std::string("model.kind=") + kind,
-                                             "simulation.steps_per_cycle=" + std::to_string(n)}));
+      const RunSummary r = simulate(c.model(
+          {std::string("model.kind=") + kind, "simulation.steps_per_cycle=" + std::to_string(n)}));
       if (r.status != RunStatus::converged)
         throw std::runtime_error(std::string(kind) + " did not converge at " + std::to_string(n) +
                                  " steps per cycle");
       lift.push_back(r.mean_lift());
     }
     const Model probe = c.model({std::string("model.kind=") + kind});
-    const std::string tag = std::string(kind) + ", " +
-                            std::string(to_string(probe.simulation().integrator));
+    const std::string tag =
+        std::string(kind) + ", " + std::string(to_string(probe.simulation().integrator));
     const double order = std::log2(std::abs(lift[0] - lift[1]) / std::abs(lift[1] - lift[2]));
     c.check("order", tag + ": observed order of the mean-lift error", order, 4.0);
     p.series.push_back(points(tag, {200.0, 400.0},
@@ -456,10 +495,14 @@ void step_order(Context& c) {
 
 const std::map<std::string, std::function<void(Context&)>>& handlers() {
   static const std::map<std::string, std::function<void(Context&)>> h{
-      {"iso2533_density", iso2533_density}, {"revolving_wing", revolving_wing},
-      {"wagner_step", wagner_step},         {"theodorsen", theodorsen},
-      {"garrick_plunge", garrick_plunge},   {"elliptic_wing", elliptic_wing},
-      {"rectangular_wing", rectangular_wing}, {"impulsive_start", impulsive_start},
+      {"iso2533_density", iso2533_density},
+      {"revolving_wing", revolving_wing},
+      {"wagner_step", wagner_step},
+      {"theodorsen", theodorsen},
+      {"garrick_plunge", garrick_plunge},
+      {"elliptic_wing", elliptic_wing},
+      {"rectangular_wing", rectangular_wing},
+      {"impulsive_start", impulsive_start},
       {"step_order", step_order}};
   return h;
 }

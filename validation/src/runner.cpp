@@ -141,7 +141,8 @@ std::string report_markdown(const std::vector<CaseResult>& results,
         std::to_string(results.size()) + " cases. " + figures_note + "\n\n";
   md += "| case | compared | checks passed | source |\n|---|---|---|---|\n";
   for (const auto& r : results) {
-    const long ok = std::count_if(r.checks.begin(), r.checks.end(), [](const Check& c) { return c.pass; });
+    const long ok =
+        std::count_if(r.checks.begin(), r.checks.end(), [](const Check& c) { return c.pass; });
     md += "| " + r.spec.name + " | " + r.spec.compared + " | " +
           (r.failure.empty() ? std::to_string(ok) + " / " + std::to_string(r.checks.size())
                              : "could not run: " + r.failure) +
@@ -155,11 +156,15 @@ std::string report_markdown(const std::vector<CaseResult>& results,
     for (const auto& s : r.spec.checks)
       md += "- `" + s.id + "`: " + number(s.tolerance) + " (" + s.measure + ") — " + s.why + "\n";
     if (!r.failure.empty()) md += "\n**Could not run:** " + r.failure + "\n";
-    md += "\n| quantity | flapline | reference | error | tolerance | result | source |\n"
-          "|---|---|---|---|---|---|---|\n";
+    md +=
+        "\n| quantity | flapline | reference | error | tolerance | result | source |\n"
+        "|---|---|---|---|---|---|---|\n";
     for (const auto& c : r.checks)
       md += "| " + c.quantity + " | " + number(c.value) + " | " + number(c.reference) + " | " +
-            number(c.error) + (c.measure == "relative" ? "" : c.measure == "degrees" ? " deg" : "") +
+            number(c.error) +
+            (c.measure == "relative"  ? ""
+             : c.measure == "degrees" ? " deg"
+                                      : "") +
             " | " + number(c.tolerance) + " | " + (c.pass ? "pass" : "**FAIL**") + " | " +
             (r.spec.table_source.empty() || c.id != "table" ? r.spec.source : r.spec.table_source) +
             " |\n";

@@ -28,7 +28,7 @@ double wagner(double s) {
   using boost::math::cyl_bessel_i;
   using boost::math::cyl_bessel_k;
   auto integrand = [s](double x) -> double {
-    if (x > 300.0) return 0.0;  // I₀ overflows; the integrand is below 1e-250 there
+    if (x > 300.0) return 0.0;               // I₀ overflows; the integrand is below 1e-250 there
     if (x < 1e-12) return std::exp(-x * s);  // x K₁(x) -> 1, x K₀(x) -> 0, x I -> 0
     // x²[...] written with xK and xI so that K₁ ~ 1/x does not overflow near 0
     const double kk = x * (cyl_bessel_k(1, x) - cyl_bessel_k(0, x));

@@ -2,8 +2,8 @@
 
 #include <cassert>
 
-#include "flapline/aero/quasi_steady.hpp"
 #include "flapline/aero/lifting_line.hpp"
+#include "flapline/aero/quasi_steady.hpp"
 #include "flapline/aero/wagner.hpp"
 
 namespace flapline {
@@ -15,13 +15,18 @@ std::unique_ptr<AeroScratch> AeroModel::make_scratch(const Model&,
 
 void AeroModel::prepare_run(const Model&, Workspace&) const {}
 
-double AeroModel::stiffest_rate(const Model&, Workspace&, double) const { return 0.0; }
+double AeroModel::stiffest_rate(const Model&, Workspace&, double) const {
+  return 0.0;
+}
 
-void AeroModel::own_induction(const Model&, Workspace&, double, Eigen::Ref<Eigen::ArrayXd> kappa) const {
+void AeroModel::own_induction(const Model&, Workspace&, double,
+                              Eigen::Ref<Eigen::ArrayXd> kappa) const {
   kappa.setZero();
 }
 
-bool AeroModel::own_induction_varies(const Model&) const { return false; }
+bool AeroModel::own_induction_varies(const Model&) const {
+  return false;
+}
 
 const AeroModel& aero_model(ModelKind kind) {
   static const QuasiSteadyModel quasi_steady;

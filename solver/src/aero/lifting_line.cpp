@@ -9,11 +9,11 @@
 #include "flapline/aero/lag_states.hpp"
 #include "flapline/aero/section_loads.hpp"
 #include "flapline/aero/vortex_filament.hpp"
-#include "flapline/common/huge_block.hpp"
-#include "flapline/common/math.hpp"
 #include "flapline/case/model.hpp"
 #include "flapline/case/stage_kinematics.hpp"
 #include "flapline/case/workspace.hpp"
+#include "flapline/common/huge_block.hpp"
+#include "flapline/common/math.hpp"
 
 namespace flapline {
 namespace {
@@ -235,8 +235,8 @@ void solve_stage(const Model& model, Workspace& ws, double t, const Eigen::Vecto
     if (!poses_current) update_speeds(model, ws, t);  // poses at t (stage arrays are not read)
     factorise(model, ws, s);
     const auto& minus = s.mirror ? s.lu2 : s.lu;  // the − half (mirror only)
-    solve_factors(model, s, s.lu.matrixLU(), s.lu.permutationP().indices().data(),
-                  minus.matrixLU(), minus.permutationP().indices().data());
+    solve_factors(model, s, s.lu.matrixLU(), s.lu.permutationP().indices().data(), minus.matrixLU(),
+                  minus.permutationP().indices().data());
     if (slot >= 0) {
       double* f = s.factors + slot * rows * 2 * n;
       int* p = s.pivots.data() + slot * 2 * rows;
@@ -289,8 +289,8 @@ void horseshoe_geometry(const Model& model, const Workspace& ws, HorseshoeGeomet
       return Eigen::Vector3d(p.hinge + p.span_ratio * r * p.span_axis +
                              (le - 0.25 * chord) * chord_axis(twist));
     };
-    Eigen::Vector3d inner = to_body(quarter(st.edge_radius(0), st.edge_chord(0),
-                                            st.edge_leading_edge(0), st.edge_twist(0)));
+    Eigen::Vector3d inner = to_body(
+        quarter(st.edge_radius(0), st.edge_chord(0), st.edge_leading_edge(0), st.edge_twist(0)));
     Eigen::Vector3d inner_leg = -to_body(chord_axis(st.edge_twist(0)));
     for (Eigen::Index i = 0; i < n; ++i) {
       const Eigen::Index k = side * n + i;
@@ -310,7 +310,8 @@ void horseshoe_geometry(const Model& model, const Workspace& ws, HorseshoeGeomet
       inner_leg = outer_leg;
       const double ct = st.cos_twist(i), sn = st.sin_twist(i);
       g.normal.col(k) = to_body(Eigen::Vector3d(ct * p.normal_axis - sn * p.chord_axis));
-      g.control.col(k) = to_body(quarter(st.radius(i), st.chord(i), st.leading_edge(i), st.twist(i)));
+      g.control.col(k) =
+          to_body(quarter(st.radius(i), st.chord(i), st.leading_edge(i), st.twist(i)));
       g.core(k) = kCoreFraction * p.span_ratio * st.width(i);
     }
   }
@@ -427,10 +428,13 @@ void LiftingLineModel::initial_state(const Model& model, Workspace& ws, double t
   if (start == StartMode::periodic) {
     // The periodic orbit for the forcing of the steady coupled solution at each instant: exact
     // when the coupling is quasi-steady, a close first guess otherwise.
-    periodic_lag_state(model, ws, [&](double time, Eigen::ArrayXd& f) {
-      update_speeds(model, ws, time);
-      steady_forcing(model, ws, ws.w_three_quarter, f);
-    }, x);
+    periodic_lag_state(
+        model, ws,
+        [&](double time, Eigen::ArrayXd& f) {
+          update_speeds(model, ws, time);
+          steady_forcing(model, ws, ws.w_three_quarter, f);
+        },
+        x);
     return;
   }
   // The discrete Prandtl solution at t: x_k = A_k f.

@@ -2,10 +2,10 @@
 
 #include <cmath>
 
-#include "flapline/common/math.hpp"
 #include "flapline/case/model.hpp"
 #include "flapline/case/stage_kinematics.hpp"
 #include "flapline/case/workspace.hpp"
+#include "flapline/common/math.hpp"
 
 namespace flapline {
 namespace {
@@ -33,10 +33,10 @@ void circulation_loads(const Model& model, Workspace& ws) {
     const StripContext x = context(model, ws, k);
     const double c = x.chord;
     const double w_e = L.w_effective(k);
-    const double gamma = kPi * c * w_e;                   // Γ = πc·w_E
-    const double w_s = w_e - 0.25 * x.pose.omega_s * c;   // leading-edge normal-wash
-    const double normal = rho * gamma * x.sec.tangential_speed +
-                          kappa * kPi * rho * c * w_s * std::abs(w_s);
+    const double gamma = kPi * c * w_e;                  // Γ = πc·w_E
+    const double w_s = w_e - 0.25 * x.pose.omega_s * c;  // leading-edge normal-wash
+    const double normal =
+        rho * gamma * x.sec.tangential_speed + kappa * kPi * rho * c * w_s * std::abs(w_s);
     const bool keep = !(reverse_no_suction && x.sec.tangential_speed < 0.0);
     const double suction = keep ? eta * kPi * rho * c * w_s * w_s : 0.0;
     L.circulation(k) = gamma;

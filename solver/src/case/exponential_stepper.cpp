@@ -1,8 +1,8 @@
 #include "flapline/case/exponential_stepper.hpp"
 
+#include <algorithm>
 #include <array>
 #include <cassert>
-#include <algorithm>
 #include <cmath>
 
 namespace flapline {
@@ -34,7 +34,9 @@ const Series& series() {
 }
 
 /// Terms needed for |x| below 0.01, 0.125, 0.5, 2 (remainder below 1e-17 of the leading term).
-int terms_for(double ax) { return ax < 0.01 ? 7 : ax < 0.125 ? 10 : ax < 0.5 ? 15 : kTerms; }
+int terms_for(double ax) {
+  return ax < 0.01 ? 7 : ax < 0.125 ? 10 : ax < 0.5 ? 15 : kTerms;
+}
 
 double horner(const std::array<double, kTerms>& c, int terms, double x) {
   double s = c[static_cast<std::size_t>(terms - 1)];
@@ -88,9 +90,9 @@ EtdWeights etd_weights(double z) {
 
 void ExponentialStepper::resize(Eigen::Index strips, Eigen::Index phases) {
   n_ = strips;
-  for (Eigen::ArrayXd* a : {&mu1_, &mu2_, &v11_, &v12_, &v21_, &v22_, &w11_, &w12_, &w21_, &w22_,
-                            &mean_rate_, &y1_, &y2_, &a1_, &a2_, &b1_, &b2_, &c1_, &c2_, &nu1_,
-                            &nu2_, &na1_, &na2_, &nb1_, &nb2_, &nc1_, &nc2_})
+  for (Eigen::ArrayXd* a : {&mu1_, &mu2_,       &v11_, &v12_, &v21_, &v22_, &w11_, &w12_, &w21_,
+                            &w22_, &mean_rate_, &y1_,  &y2_,  &a1_,  &a2_,  &b1_,  &b2_,  &c1_,
+                            &c2_,  &nu1_,       &nu2_, &na1_, &na2_, &nb1_, &nb2_, &nc1_, &nc2_})
     a->setZero(strips);
   stage_.setZero(2 * strips);
   f_.setZero(2 * strips);

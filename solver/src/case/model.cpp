@@ -11,11 +11,11 @@ namespace {
 
 void check_vector(const Eigen::Vector3d& v, const char* key, double limit, const char* unit) {
   if (!v.allFinite() || v.cwiseAbs().maxCoeff() > limit)
-    throw InputError(key,
-                     "[" + format_number(v.x()) + ", " + format_number(v.y()) + ", " +
-                         format_number(v.z()) + "]",
-                     "each component must be finite and within ±" + format_number(limit) + " (" +
-                         unit + ")");
+    throw InputError(
+        key,
+        "[" + format_number(v.x()) + ", " + format_number(v.y()) + ", " + format_number(v.z()) +
+            "]",
+        "each component must be finite and within ±" + format_number(limit) + " (" + unit + ")");
 }
 
 const GaitSpec& validated(const GaitSpec& g) {
@@ -86,8 +86,7 @@ Model::Model(ModelSpec spec)
       air_(resolve_air(spec_.air)),
       motion_{WingMotion(Side::right, validated(spec_.gait), spec_.gait.right, spec_.wing.hinge,
                          validated(spec_.flight)),
-              WingMotion(Side::left, spec_.gait, spec_.gait.left, spec_.wing.hinge,
-                         spec_.flight)} {
+              WingMotion(Side::left, spec_.gait, spec_.gait.left, spec_.wing.hinge, spec_.flight)} {
   check_span_ratio(motion_[0]);
   check_span_ratio(motion_[1]);
   validate(spec_.aero);
@@ -124,16 +123,19 @@ void Model::check_inflow() const {
   if (inflow == InflowModel::none) return;
   const std::string name(to_string(inflow));
   double stroke = 0.0;
-  for (const WingMotion& m : motion_) stroke = std::max(stroke, m.stroke.maximum() - m.stroke.minimum());
+  for (const WingMotion& m : motion_)
+    stroke = std::max(stroke, m.stroke.maximum() - m.stroke.minimum());
   if (!(stroke > 1e-9))
     throw InputError("model.inflow", name,
                      "needs flapping wings: the stroke is constant, so there is no stroke disc",
                      "a fixed wing's downwash is the lifting_line model's job")
         .between_keys();
   if (!periodic_)
-    throw InputError("model.inflow", name, "needs kinematics that repeat every cycle (no step waveform)")
+    throw InputError("model.inflow", name,
+                     "needs kinematics that repeat every cycle (no step waveform)")
         .between_keys();
-  if (inflow == InflowModel::stroke_disc && std::abs(spec_.gait.stroke_plane_angle) > 0.25 * kPi + 1e-12)
+  if (inflow == InflowModel::stroke_disc &&
+      std::abs(spec_.gait.stroke_plane_angle) > 0.25 * kPi + 1e-12)
     throw InputError("model.inflow", name,
                      "needs a stroke plane within ±45 deg of level (gait.stroke_plane_angle is " +
                          format_number(spec_.gait.stroke_plane_angle / kDegree) + " deg)",

@@ -22,9 +22,9 @@ void validate(const SimulationOptions& o) {
     throw InputError("simulation.max_cycles", std::to_string(o.max_cycles),
                      "must lie in [1, 100000]");
   if (o.min_cycles < 1 || o.min_cycles > o.max_cycles)
-    throw InputError("simulation.min_cycles", std::to_string(o.min_cycles),
-                     "must lie in [1, simulation.max_cycles = " + std::to_string(o.max_cycles) +
-                         "]")
+    throw InputError(
+        "simulation.min_cycles", std::to_string(o.min_cycles),
+        "must lie in [1, simulation.max_cycles = " + std::to_string(o.max_cycles) + "]")
         .between_keys();
   if (!(o.tolerance > 0.0 && o.tolerance <= 0.1))
     throw InputError("simulation.tolerance", format_number(o.tolerance), "must lie in (0, 0.1]");

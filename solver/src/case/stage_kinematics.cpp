@@ -56,7 +56,7 @@ void update_sections(const Model& model, Workspace& ws, double t) {
   const Eigen::Index n2 = model.strip_count();
   const auto arrays = [&] {
     return std::array<Eigen::ArrayXd*, 6>{&ws.tangential, &ws.w_pivot, &ws.w_three_quarter,
-                                          &ws.w_half, &ws.speed, &ws.rate};
+                                          &ws.w_half,     &ws.speed,   &ws.rate};
   };
   const std::size_t first = static_cast<std::size_t>(j) * static_cast<std::size_t>(n2);
   if (j >= 0 && ws.sample_filled[static_cast<std::size_t>(j)]) {
@@ -87,10 +87,9 @@ void compute_sections(const Model& model, Workspace& ws, double t) {
   for (Eigen::Index k = 0; k < 2 * n; ++k) {
     const int s = k < n ? 0 : 1;
     const Eigen::Index i = k - s * n;
-    ws.sections[static_cast<std::size_t>(k)] =
-        section_state(ws.poses[static_cast<std::size_t>(s)], model.motion(static_cast<Side>(s)),
-                      st.radius(i), st.chord(i), st.leading_edge(i), st.cos_twist(i),
-                      st.sin_twist(i));
+    ws.sections[static_cast<std::size_t>(k)] = section_state(
+        ws.poses[static_cast<std::size_t>(s)], model.motion(static_cast<Side>(s)), st.radius(i),
+        st.chord(i), st.leading_edge(i), st.cos_twist(i), st.sin_twist(i));
   }
 }
 

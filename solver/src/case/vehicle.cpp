@@ -34,13 +34,14 @@ Eigen::Matrix3d inertia_matrix(const VehicleSpec& v) {
 void validate(const VehicleSpec& v) {
   if (!(v.mass > 0.0 && v.mass <= 1000.0))
     throw InputError("vehicle.mass", format_number(v.mass), "must lie in (0, 1000] (kg)");
-  for (const auto& [name, value] : {std::pair<const char*, double>{"xx", v.ixx},
-                                    {"yy", v.iyy}, {"zz", v.izz}, {"xz", v.ixz}})
+  for (const auto& [name, value] :
+       {std::pair<const char*, double>{"xx", v.ixx}, {"yy", v.iyy}, {"zz", v.izz}, {"xz", v.ixz}})
     if (!std::isfinite(value) || std::abs(value) > 1e6)
       throw InputError(std::string("vehicle.inertia.") + name, format_number(value),
                        "must be finite and within ±1e6 (kg m^2)");
   const Eigen::Matrix3d i = inertia_matrix(v);
-  const double smallest = Eigen::SelfAdjointEigenSolver<Eigen::Matrix3d>(i).eigenvalues().minCoeff();
+  const double smallest =
+      Eigen::SelfAdjointEigenSolver<Eigen::Matrix3d>(i).eigenvalues().minCoeff();
   if (!(smallest > 0.0))
     throw InputError("vehicle.inertia",
                      "xx " + format_number(v.ixx) + ", yy " + format_number(v.iyy) + ", zz " +

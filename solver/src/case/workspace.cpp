@@ -22,7 +22,9 @@ Workspace::~Workspace() = default;
 Workspace::Workspace(Workspace&&) noexcept = default;
 Workspace& Workspace::operator=(Workspace&&) noexcept = default;
 
-Workspace::Workspace(const Model& model) { allocate(model); }
+Workspace::Workspace(const Model& model) {
+  allocate(model);
+}
 
 void Workspace::allocate(const Model& model) {
   model_ = &model;

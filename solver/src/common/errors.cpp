@@ -35,7 +35,8 @@ void InputError::compose() {
 namespace {
 std::string numerical_message(double time, const std::string& where, const std::string& quantity) {
   return "non-finite " + quantity + " at t = " + format_number(time) + " s, " + where +
-         " (reduce the time step, check the gait for very fast motion, or choose a start from rest)";
+         " (reduce the time step, check the gait for very fast motion, or choose a start from "
+         "rest)";
 }
 }  // namespace
 

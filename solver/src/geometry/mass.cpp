@@ -65,8 +65,11 @@ void validate(const WingMassSpec& s) {
     const PointMassSpec& p = s.points[i];
     const std::string key = "wing.mass.points";
     const std::string row = "point " + std::to_string(i + 1);
-    check_fraction(p.span_fraction, key, "span fraction of " + row + ": a point mass must lie on the wing");
-    check_fraction(p.chord_fraction, key, "chord fraction of " + row + " from the leading edge: a point mass must lie on the wing");
+    check_fraction(p.span_fraction, key,
+                   "span fraction of " + row + ": a point mass must lie on the wing");
+    check_fraction(
+        p.chord_fraction, key,
+        "chord fraction of " + row + " from the leading edge: a point mass must lie on the wing");
     check_mass(p.mass, key);
   }
 }
@@ -98,7 +101,7 @@ MassElements distribute_mass(const WingMassSpec& spec, const Planform& planform,
     e.offset(i) = planform.leading_edge(r) - centre * c;
     e.cos_twist(i) = std::cos(twist);
     e.sin_twist(i) = std::sin(twist);
-    e.chord_inertia(i) = c * c / 12.0;   // per kg, scaled below
+    e.chord_inertia(i) = c * c / 12.0;  // per kg, scaled below
     e.stretch_inertia(i) = dr * dr / 12.0;
   }
   if (!table) e.mass.head(n) *= area > 0.0 ? spec.total / area : 0.0;

@@ -26,14 +26,13 @@ double Planform::max_second_moment_radius(double r1) {
 Planform::Planform(PlanformSpec spec) : spec_(std::move(spec)) {
   const auto& s = spec_;
   require_positive(s.span, "wing.span", "m");
-  if (s.shape != PlanformShape::table &&
-      (!(s.pitch_axis >= 0.0 && s.pitch_axis <= 1.0)))
+  if (s.shape != PlanformShape::table && (!(s.pitch_axis >= 0.0 && s.pitch_axis <= 1.0)))
     throw InputError("wing.pitch_axis", format_number(s.pitch_axis),
                      "must lie in [0, 1] (chord fraction from the leading edge)");
   if (!s.hinge.allFinite())
     throw InputError("wing.hinge", "non-finite", "must be three finite numbers (m, body axes)");
-  for (auto [v, key] : {std::pair{s.twist_root, "wing.twist_root"},
-                        std::pair{s.twist_tip, "wing.twist_tip"}})
+  for (auto [v, key] :
+       {std::pair{s.twist_root, "wing.twist_root"}, std::pair{s.twist_tip, "wing.twist_tip"}})
     if (!(std::abs(v) <= 45.0 * kDegree))
       throw InputError(key, format_number(v / kDegree), "must lie in [-45, 45] (deg)");
 
@@ -76,20 +75,23 @@ Planform::Planform(PlanformSpec spec) : spec_(std::move(spec)) {
         throw InputError("wing.table", std::to_string(n) + " rows",
                          "needs at least 2 rows of span_fraction, chord, leading_edge");
       if (u.front() != 0.0 || u.back() != 1.0)
-        throw InputError("wing.table", "span_fraction " + format_number(u.front()) + ".." +
-                                           format_number(u.back()),
-                         "span_fraction must start at 0 and end at 1");
+        throw InputError(
+            "wing.table",
+            "span_fraction " + format_number(u.front()) + ".." + format_number(u.back()),
+            "span_fraction must start at 0 and end at 1");
       for (std::size_t i = 0; i < n; ++i) {
         if (i > 0 && !(u[i] > u[i - 1]))
           throw InputError("wing.table", "row " + std::to_string(i + 1),
                            "span_fraction must increase strictly");
         if (!(s.table_chord[i] >= 0.0) || !std::isfinite(s.table_chord[i]))
-          throw InputError("wing.table", "row " + std::to_string(i + 1) + " chord " +
-                                             format_number(s.table_chord[i]),
-                           "chord must be >= 0 (m)");
+          throw InputError(
+              "wing.table",
+              "row " + std::to_string(i + 1) + " chord " + format_number(s.table_chord[i]),
+              "chord must be >= 0 (m)");
         if (!(s.table_leading_edge[i] >= 0.0 && s.table_leading_edge[i] <= s.table_chord[i]))
-          throw InputError("wing.table", "row " + std::to_string(i + 1) + " leading_edge " +
-                                             format_number(s.table_leading_edge[i]),
+          throw InputError("wing.table",
+                           "row " + std::to_string(i + 1) + " leading_edge " +
+                               format_number(s.table_leading_edge[i]),
                            "leading_edge must lie in [0, chord] (m ahead of the pitch axis)");
       }
       break;

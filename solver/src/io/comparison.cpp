@@ -49,20 +49,30 @@ const std::vector<ComparedQuantity>& compared_quantities() {
   static const std::vector<ComparedQuantity> q{
       {"mean lift (N)", [](const RunSummary& s) { return force_shown(s, s.mean_lift()); }},
       {"mean thrust (N)", [](const RunSummary& s) { return force_shown(s, s.mean_thrust()); }},
-      {"mean side force (N)", [](const RunSummary& s) { return force_shown(s, s.mean_side_force()); }},
-      {"mean roll moment L (N m)", [](const RunSummary& s) { return moment_shown(s, s.averages.mean.moment.x()); }},
-      {"mean pitch moment M (N m)", [](const RunSummary& s) { return moment_shown(s, s.averages.mean.moment.y()); }},
-      {"mean yaw moment N (N m)", [](const RunSummary& s) { return moment_shown(s, s.averages.mean.moment.z()); }},
+      {"mean side force (N)",
+       [](const RunSummary& s) { return force_shown(s, s.mean_side_force()); }},
+      {"mean roll moment L (N m)",
+       [](const RunSummary& s) { return moment_shown(s, s.averages.mean.moment.x()); }},
+      {"mean pitch moment M (N m)",
+       [](const RunSummary& s) { return moment_shown(s, s.averages.mean.moment.y()); }},
+      {"mean yaw moment N (N m)",
+       [](const RunSummary& s) { return moment_shown(s, s.averages.mean.moment.z()); }},
       {"mean power to the air (W)", [](const RunSummary& s) { return s.averages.power_air_mean; }},
-      {"mean actuator power (W)", [](const RunSummary& s) { return s.averages.power_actuator_mean; }},
-      {"mean mechanical power, perfect storage (W)", [](const RunSummary& s) { return s.averages.power_mechanical_storage_perfect; }},
-      {"mean mechanical power, no storage (W)", [](const RunSummary& s) { return s.averages.power_mechanical_storage_none; }},
-      {"lift / drive power, no storage (N/W)", [](const RunSummary& s) { return or_nan(s.derived.lift_per_power_storage_none); }},
-      {"mean lift coefficient", [](const RunSummary& s) { return or_nan(s.derived.mean_lift_coefficient); }},
+      {"mean actuator power (W)",
+       [](const RunSummary& s) { return s.averages.power_actuator_mean; }},
+      {"mean mechanical power, perfect storage (W)",
+       [](const RunSummary& s) { return s.averages.power_mechanical_storage_perfect; }},
+      {"mean mechanical power, no storage (W)",
+       [](const RunSummary& s) { return s.averages.power_mechanical_storage_none; }},
+      {"lift / drive power, no storage (N/W)",
+       [](const RunSummary& s) { return or_nan(s.derived.lift_per_power_storage_none); }},
+      {"mean lift coefficient",
+       [](const RunSummary& s) { return or_nan(s.derived.mean_lift_coefficient); }},
       {"aspect ratio of the pair", [](const RunSummary& s) { return s.derived.aspect_ratio; }},
       {"r2 hat", [](const RunSummary& s) { return s.derived.r2; }},
       {"Reynolds number", [](const RunSummary& s) { return or_nan(s.derived.reynolds_number); }},
-      {"reduced frequency", [](const RunSummary& s) { return or_nan(s.derived.reduced_frequency); }},
+      {"reduced frequency",
+       [](const RunSummary& s) { return or_nan(s.derived.reduced_frequency); }},
       {"cycles to converge", [](const RunSummary& s) { return static_cast<double>(s.cycles); }}};
   return q;
 }
@@ -101,10 +111,18 @@ std::string comparison_markdown(const std::vector<ComparedCase>& cases,
 
 std::map<std::string, std::string> comparison_plots(const std::vector<ComparedCase>& cases) {
   std::map<std::string, std::string> files;
-  Plot lift{"Lift over the last cycle", "phase of the wing-beat (cycle fraction)", "lift = -Z (N)",
-            "", kAxesNote, {}};
-  Plot power{"Power to the air over the last cycle", "phase of the wing-beat (cycle fraction)",
-             "power (W)", "", "P = -sum(F . (v - wind) + C . omega)", {}};
+  Plot lift{"Lift over the last cycle",
+            "phase of the wing-beat (cycle fraction)",
+            "lift = -Z (N)",
+            "",
+            kAxesNote,
+            {}};
+  Plot power{"Power to the air over the last cycle",
+             "phase of the wing-beat (cycle fraction)",
+             "power (W)",
+             "",
+             "P = -sum(F . (v - wind) + C . omega)",
+             {}};
   for (const auto& c : cases) {
     lift.series.push_back(last_cycle_series(c.summary, c.name, false));
     power.series.push_back(last_cycle_series(c.summary, c.name, true));

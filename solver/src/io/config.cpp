@@ -20,7 +20,9 @@ namespace {
 namespace fs = std::filesystem;
 using Keys = std::vector<std::string>;
 
-std::string join(const std::string& a, const std::string& b) { return a.empty() ? b : a + "." + b; }
+std::string join(const std::string& a, const std::string& b) {
+  return a.empty() ? b : a + "." + b;
+}
 
 std::string describe(const YAML::Node& n) {
   if (!n.IsDefined() || n.IsNull()) return "(empty)";
@@ -118,8 +120,9 @@ class Reader {
       fail("(document)", nullptr, "(empty)", "the file holds no settings; see configs/README.md");
     if (!root.IsMap())
       fail("(document)", &root, describe(root), "the top level must be a map of sections");
-    check_keys(root, "", {"title", "description", "wing", "gait", "flight", "air", "model",
-                          "simulation", "vehicle"});
+    check_keys(root, "",
+               {"title", "description", "wing", "gait", "flight", "air", "model", "simulation",
+                "vehicle"});
     ModelSpec spec;
     if (has(root, "title")) spec.title = text(root["title"], "title");
     read_wing(required(root, "", "wing"), spec);
@@ -174,8 +177,7 @@ class Reader {
       std::string all;
       for (const auto& a : allowed) all += (all.empty() ? "" : ", ") + a;
       const std::string near = closest_match(key, allowed);
-      fail(join(path, key), &it->first, "",
-           "unknown key; allowed here: " + all,
+      fail(join(path, key), &it->first, "", "unknown key; allowed here: " + all,
            near.empty() ? std::string() : "did you mean '" + near + "'?");
     }
   }
@@ -226,9 +228,8 @@ class Reader {
     const std::string P = "wing";
     check_keys(w, P,
                {"planform", "span", "chord", "root_chord", "tip_chord", "mean_chord",
-                "first_moment_radius", "second_moment_radius", "table", "table_file",
-                "pitch_axis", "hinge", "twist_root", "twist_tip", "strips", "strip_spacing",
-                "mass"});
+                "first_moment_radius", "second_moment_radius", "table", "table_file", "pitch_axis",
+                "hinge", "twist_root", "twist_tip", "strips", "strip_spacing", "mass"});
     if (has(w, "mass")) read_mass(map_at(w, P, "mass"), spec.wing_mass);
     PlanformSpec& p = spec.wing;
     if (!has(w, "planform"))
@@ -241,8 +242,9 @@ class Reader {
         {PlanformShape::tapered, {"root_chord", "tip_chord"}},
         {PlanformShape::beta, {"mean_chord", "first_moment_radius", "second_moment_radius"}},
         {PlanformShape::table, {}}};
-    const Keys shape_keys{"chord", "root_chord", "tip_chord", "mean_chord",
-                          "first_moment_radius", "second_moment_radius", "table", "table_file"};
+    const Keys shape_keys{"chord",      "root_chord",          "tip_chord",
+                          "mean_chord", "first_moment_radius", "second_moment_radius",
+                          "table",      "table_file"};
     const Keys& need = needs.at(p.shape);
     const std::string shape_name(to_string(p.shape));
     for (const auto& k : shape_keys) {
@@ -268,7 +270,8 @@ class Reader {
       p.second_moment_radius = number(w["second_moment_radius"], P + ".second_moment_radius");
     if (p.shape == PlanformShape::table) {
       if (has(w, "table") == has(w, "table_file"))
-        fail_between(P + ".table_file", &w, "", "planform table needs exactly one of wing.table "
+        fail_between(P + ".table_file", &w, "",
+                     "planform table needs exactly one of wing.table "
                      "(inline rows) or wing.table_file (CSV)");
       if (has(w, "table"))
         read_inline_table(w["table"], P + ".table", p);
@@ -303,8 +306,9 @@ class Reader {
         if (!row.IsSequence() || row.size() != 3)
           fail(path, &row, describe(row),
                std::string("each row must be ") + layout +
-                   (row.IsSequence() ? " (3 numbers; this row has " + std::to_string(row.size()) + ")"
-                                     : ""));
+                   (row.IsSequence()
+                        ? " (3 numbers; this row has " + std::to_string(row.size()) + ")"
+                        : ""));
       return t;
     };
     if (has(m, "per_span")) {
@@ -327,7 +331,8 @@ class Reader {
       fail(path, &t, describe(t), "must be a list of [span_fraction, chord, leading_edge] rows");
     for (const auto& row : t) {
       if (!row.IsSequence() || row.size() != 3)
-        fail(path, &row, describe(row), "each row must be [span_fraction, chord (m), leading_edge (m)]");
+        fail(path, &row, describe(row),
+             "each row must be [span_fraction, chord (m), leading_edge (m)]");
       p.table_span_fraction.push_back(number(row[0], path));
       p.table_chord.push_back(number(row[1], path));
       p.table_leading_edge.push_back(number(row[2], path));
@@ -338,7 +343,9 @@ class Reader {
     const std::string name = text(n, path);
     const fs::path file = fs::path(src_.base_dir) / name;
     std::ifstream in(file);
-    if (!in) fail(path, &n, "'" + name + "'", "the CSV file could not be opened (relative to the config's folder)");
+    if (!in)
+      fail(path, &n, "'" + name + "'",
+           "the CSV file could not be opened (relative to the config's folder)");
     auto csv_fail = [&](int line, const std::string& value, const std::string& allowed) {
       InputError e(path, value, allowed);
       e.locate(file.string(), line);
@@ -361,7 +368,8 @@ class Reader {
       }
       if (!header) {
         if (cells != std::vector<std::string>{"span_fraction", "chord", "leading_edge"})
-          csv_fail(lineno, "'" + line + "'", "the header must be: span_fraction,chord,leading_edge");
+          csv_fail(lineno, "'" + line + "'",
+                   "the header must be: span_fraction,chord,leading_edge");
         header = true;
         continue;
       }
@@ -377,19 +385,23 @@ class Reader {
       p.table_chord.push_back(v[1]);
       p.table_leading_edge.push_back(v[2]);
     }
-    if (!header) csv_fail(lineno, "(no header)", "the header must be: span_fraction,chord,leading_edge");
+    if (!header)
+      csv_fail(lineno, "(no header)", "the header must be: span_fraction,chord,leading_edge");
   }
 
   // --- gait -----------------------------------------------------------------------------------
   void read_gait(const YAML::Node& g, GaitSpec& gait) const {
     const std::string P = "gait";
     const Keys angles{"stroke", "deviation", "pitch", "span_ratio"};
-    check_keys(g, P, {"frequency", "stroke_plane_angle", "stroke", "deviation", "pitch",
-                      "span_ratio", "plunge", "left", "right"});
-    if (!has(g, "frequency")) fail(P + ".frequency", &g, "(missing)", "this key is required (Hz, > 0)");
+    check_keys(g, P,
+               {"frequency", "stroke_plane_angle", "stroke", "deviation", "pitch", "span_ratio",
+                "plunge", "left", "right"});
+    if (!has(g, "frequency"))
+      fail(P + ".frequency", &g, "(missing)", "this key is required (Hz, > 0)");
     gait.frequency = number(g["frequency"], P + ".frequency");
     if (has(g, "stroke_plane_angle"))
-      gait.stroke_plane_angle = number(g["stroke_plane_angle"], P + ".stroke_plane_angle") * kDegree;
+      gait.stroke_plane_angle =
+          number(g["stroke_plane_angle"], P + ".stroke_plane_angle") * kDegree;
     for (const char* side : {"left", "right"})
       if (has(g, side)) check_keys(map_at(g, P, side), P + "." + side, angles);
     for (int s = 0; s < 2; ++s) {
@@ -402,7 +414,8 @@ class Reader {
       w.pitch = waveform(g, over, side, "pitch", kDegree, 0.0);
       w.span_ratio = waveform(g, over, side, "span_ratio", 1.0, 1.0);
     }
-    if (has(g, "plunge")) gait.plunge = waveform(g, YAML::Node(YAML::NodeType::Undefined), "", "plunge", 1.0, 0.0);
+    if (has(g, "plunge"))
+      gait.plunge = waveform(g, YAML::Node(YAML::NodeType::Undefined), "", "plunge", 1.0, 0.0);
   }
 
   /// The waveform of one angle: the side's entry replaces the shared one when it is a number or
@@ -454,7 +467,8 @@ class Reader {
       return YAML::Node(YAML::NodeType::Undefined);
     };
     std::string path;
-    if (const YAML::Node n = pick("shape", path); n.IsDefined()) w.shape = choice<WaveShape>(n, path);
+    if (const YAML::Node n = pick("shape", path); n.IsDefined())
+      w.shape = choice<WaveShape>(n, path);
     const std::string shape_name(to_string(w.shape));
     static const std::map<WaveShape, Keys> applies{
         {WaveShape::harmonic, {"shape", "mean", "amplitude", "phase"}},
@@ -472,11 +486,13 @@ class Reader {
     if (const YAML::Node n = pick("mean", path); n.IsDefined()) w.mean = number(n, path) * scale;
     if (const YAML::Node n = pick("amplitude", path); n.IsDefined())
       w.amplitude = number(n, path) * scale;
-    if (const YAML::Node n = pick("phase", path); n.IsDefined()) w.phase = number(n, path) * kDegree;
+    if (const YAML::Node n = pick("phase", path); n.IsDefined())
+      w.phase = number(n, path) * kDegree;
     if (const YAML::Node n = pick("delay", path); n.IsDefined()) w.delay = number(n, path);
     if (w.shape == WaveShape::smoothed_triangle || w.shape == WaveShape::smoothed_square) {
       const YAML::Node n = pick("sharpness", path);
-      if (!n.IsDefined()) fail_between(path, primary, "(missing)", "required for shape " + shape_name);
+      if (!n.IsDefined())
+        fail_between(path, primary, "(missing)", "required for shape " + shape_name);
       w.sharpness = number(n, path);
     }
     if (w.shape == WaveShape::fourier) {
@@ -487,7 +503,8 @@ class Reader {
       for (const auto& h : n) {
         if (!h.IsMap()) fail(path, &h, describe(h), "each harmonic must be {amplitude, phase}");
         check_keys(h, path, {"amplitude", "phase"});
-        w.harmonic_amplitudes.push_back(has(h, "amplitude") ? number(h["amplitude"], path) * scale : 0.0);
+        w.harmonic_amplitudes.push_back(has(h, "amplitude") ? number(h["amplitude"], path) * scale
+                                                            : 0.0);
         w.harmonic_phases.push_back(has(h, "phase") ? number(h["phase"], path) * kDegree : 0.0);
       }
     }
@@ -509,8 +526,9 @@ class Reader {
   // --- other sections --------------------------------------------------------------------------
   void read_flight(const YAML::Node& f, ModelSpec& spec) const {
     FlightSpec& flight = spec.flight;
-    check_keys(f, "flight", {"velocity", "rates", "wind", "airspeed", "flight_path_angle",
-                             "sideslip", "turn_rate"});
+    check_keys(
+        f, "flight",
+        {"velocity", "rates", "wind", "airspeed", "flight_path_angle", "sideslip", "turn_rate"});
     if (has(f, "velocity")) flight.velocity = vec3(f["velocity"], "flight.velocity");
     if (has(f, "rates")) flight.rates = vec3(f["rates"], "flight.rates", kDegree);
     if (has(f, "wind")) flight.wind = vec3(f["wind"], "flight.wind");
@@ -552,8 +570,8 @@ class Reader {
            "this key is required: {xx, yy, zz, xz} about the centre of mass (kg m^2)");
     const YAML::Node in = map_at(v, P, "inertia");
     check_keys(in, P + ".inertia", {"xx", "yy", "zz", "xz"});
-    for (const auto& [key, target] : {std::pair<const char*, double*>{"xx", &out.ixx},
-                                      {"yy", &out.iyy}, {"zz", &out.izz}})
+    for (const auto& [key, target] :
+         {std::pair<const char*, double*>{"xx", &out.ixx}, {"yy", &out.iyy}, {"zz", &out.izz}})
       if (!has(in, key))
         fail(P + ".inertia." + key, &in, "(missing)", "required (kg m^2, > 0)");
       else
@@ -578,9 +596,10 @@ class Reader {
   }
 
   void read_model(const YAML::Node& m, AeroOptions& o) const {
-    check_keys(m, "model", {"kind", "coefficient_law", "suction_recovery", "vortex_lift", "fit",
-                            "wagner_fit", "reverse_flow", "span_coupling", "line_solve",
-                            "profile_drag", "inflow", "inflow_relaxation"});
+    check_keys(m, "model",
+               {"kind", "coefficient_law", "suction_recovery", "vortex_lift", "fit", "wagner_fit",
+                "reverse_flow", "span_coupling", "line_solve", "profile_drag", "inflow",
+                "inflow_relaxation"});
     if (has(m, "inflow")) o.inflow = choice<InflowModel>(m["inflow"], "model.inflow");
     if (has(m, "inflow_relaxation"))
       o.inflow_relaxation = number(m["inflow_relaxation"], "model.inflow_relaxation");
@@ -592,8 +611,7 @@ class Reader {
       if (has(d, "coefficient"))
         o.profile_drag.coefficient = number(d["coefficient"], "model.profile_drag.coefficient");
     }
-    if (has(m, "line_solve"))
-      o.line_solve = choice<LineSolve>(m["line_solve"], "model.line_solve");
+    if (has(m, "line_solve")) o.line_solve = choice<LineSolve>(m["line_solve"], "model.line_solve");
     if (has(m, "span_coupling"))
       o.span_coupling = choice<SpanCoupling>(m["span_coupling"], "model.span_coupling");
     if (has(m, "wagner_fit")) o.wagner_fit = choice<WagnerFit>(m["wagner_fit"], "model.wagner_fit");
@@ -623,13 +641,13 @@ class Reader {
 
   void read_simulation(const YAML::Node& s, SimulationOptions& o) const {
     const std::string P = "simulation";
-    check_keys(s, P, {"steps_per_cycle", "samples_per_cycle", "min_cycles", "max_cycles",
-                      "tolerance", "start", "spanwise_phases", "history", "integrator",
-                      "cache_mib"});
-    if (has(s, "integrator"))
-      o.integrator = choice<Integrator>(s["integrator"], P + ".integrator");
+    check_keys(s, P,
+               {"steps_per_cycle", "samples_per_cycle", "min_cycles", "max_cycles", "tolerance",
+                "start", "spanwise_phases", "history", "integrator", "cache_mib"});
+    if (has(s, "integrator")) o.integrator = choice<Integrator>(s["integrator"], P + ".integrator");
     if (has(s, "cache_mib")) o.cache_mib = integer(s["cache_mib"], P + ".cache_mib");
-    if (has(s, "steps_per_cycle")) o.steps_per_cycle = integer(s["steps_per_cycle"], P + ".steps_per_cycle");
+    if (has(s, "steps_per_cycle"))
+      o.steps_per_cycle = integer(s["steps_per_cycle"], P + ".steps_per_cycle");
     if (has(s, "samples_per_cycle"))
       o.samples_per_cycle = integer(s["samples_per_cycle"], P + ".samples_per_cycle");
     if (has(s, "min_cycles")) o.min_cycles = integer(s["min_cycles"], P + ".min_cycles");
@@ -640,7 +658,8 @@ class Reader {
     if (has(s, "spanwise_phases")) {
       const YAML::Node n = s["spanwise_phases"];
       if (!n.IsSequence())
-        fail(P + ".spanwise_phases", &n, describe(n), "must be a list of cycle fractions in [0, 1)");
+        fail(P + ".spanwise_phases", &n, describe(n),
+             "must be a list of cycle fractions in [0, 1)");
       o.spanwise_phases.clear();
       for (const auto& v : n) o.spanwise_phases.push_back(number(v, P + ".spanwise_phases"));
     }
@@ -663,8 +682,8 @@ std::string read_file(const std::string& path) {
 /// Set (or remove) the node at a dotted key path of `root`, creating maps on the way. A part
 /// that is a whole number indexes a list (`flight.velocity.0`). `where` names the origin of the
 /// override in messages (e.g. "command line (--set k=v)").
-void apply_override(YAML::Node& root, const std::string& path, const std::string& text,
-                    bool remove, const std::string& where) {
+void apply_override(YAML::Node& root, const std::string& path, const std::string& text, bool remove,
+                    const std::string& where) {
   auto fail = [&](const std::string& allowed) {
     InputError e(path, "'" + text + "'", allowed);
     e.locate(where, 0);
@@ -720,7 +739,7 @@ void apply_override(YAML::Node& root, const std::string& path, const std::string
     }
     YAML::Node next = cur[parts[i]];
     if (!next.IsDefined() || next.IsNull()) {
-      if (remove) return;  // nothing to remove
+      if (remove) return;                 // nothing to remove
       if (list_index(parts[i + 1]) >= 0)  // an element of a list that is not there
         fail("there is no list at '" + path.substr(0, path.rfind('.')) +
              "' to index; set the whole list, e.g. " + path.substr(0, path.rfind('.')) +
@@ -734,10 +753,12 @@ void apply_override(YAML::Node& root, const std::string& path, const std::string
 
 /// Refuses a key given twice in one map — a single key or a whole section (YAML parsers keep the
 /// first silently) — naming both lines.
-void check_duplicate_keys(const YAML::Node& node, const std::string& path, const std::string& file) {
+void check_duplicate_keys(const YAML::Node& node, const std::string& path,
+                          const std::string& file) {
   if (node.IsSequence()) {
     std::size_t i = 0;
-    for (const YAML::Node& v : node) check_duplicate_keys(v, path + "." + std::to_string(i++), file);
+    for (const YAML::Node& v : node)
+      check_duplicate_keys(v, path + "." + std::to_string(i++), file);
     return;
   }
   if (!node.IsMap()) return;
@@ -748,8 +769,9 @@ void check_duplicate_keys(const YAML::Node& node, const std::string& path, const
     const int line = kv.first.Mark().line + 1;
     const auto [first, fresh] = seen.emplace(kv.first.Scalar(), line);
     if (!fresh) {
-      InputError e(key, "", "is given twice, on lines " + std::to_string(first->second) + " and " +
-                                std::to_string(line) + " (only one may stay)",
+      InputError e(key, "",
+                   "is given twice, on lines " + std::to_string(first->second) + " and " +
+                       std::to_string(line) + " (only one may stay)",
                    "merge the two, or delete the one you do not mean");
       e.locate(file, line);
       throw e;
@@ -811,8 +833,8 @@ std::string closest_match(const std::string& word, const std::vector<std::string
     for (std::size_t i = 1; i <= word.size(); ++i) {
       cur[0] = i;
       for (std::size_t j = 1; j <= a.size(); ++j)
-        cur[j] = std::min({prev[j] + 1, cur[j - 1] + 1,
-                           prev[j - 1] + (word[i - 1] == a[j - 1] ? 0u : 1u)});
+        cur[j] = std::min(
+            {prev[j] + 1, cur[j - 1] + 1, prev[j - 1] + (word[i - 1] == a[j - 1] ? 0u : 1u)});
       std::swap(prev, cur);
     }
     if (prev[a.size()] < best_d) {
@@ -864,12 +886,17 @@ CaseLoader::CaseLoader(const std::string& path, const std::vector<std::string>& 
 
 CaseLoader::CaseLoader(std::string text, std::string name, std::string base_dir,
                        std::vector<std::string> sets)
-    : text_(std::move(text)), name_(std::move(name)), base_dir_(std::move(base_dir)),
+    : text_(std::move(text)),
+      name_(std::move(name)),
+      base_dir_(std::move(base_dir)),
       sets_(std::move(sets)),
       parsed_(std::make_shared<Parsed>(Parsed{parse(text_, name_, base_dir_, sets_)})) {}
 
 CaseLoader::CaseLoader(const CaseLoader& other)
-    : text_(other.text_), name_(other.name_), base_dir_(other.base_dir_), sets_(other.sets_),
+    : text_(other.text_),
+      name_(other.name_),
+      base_dir_(other.base_dir_),
+      sets_(other.sets_),
       parsed_(std::make_shared<Parsed>(Parsed{parse(text_, name_, base_dir_, sets_)})) {}
 
 CaseLoader::~CaseLoader() = default;
@@ -878,7 +905,8 @@ CaseLoader::~CaseLoader() = default;
 /// has no line marks), or on the base itself when it is a fresh parse of its own.
 static Source case_source(const Source& base, const studies::CaseSpec& c, bool clone = true) {
   Source src = base;
-  if (clone) src.root.reset(YAML::Clone(base.root));  // rebind: assignment would write into the base
+  if (clone)
+    src.root.reset(YAML::Clone(base.root));  // rebind: assignment would write into the base
   for (const studies::Override& o : c.overrides) {
     const std::string shown = o.key + "=" + (o.remove ? "~" : o.text);
     apply_override(src.root, o.key, o.text, o.remove, "case (" + shown + ")");
@@ -963,7 +991,8 @@ std::optional<double> CaseLoader::number_at(const std::string& key) const {
       if (wave.rfind(side, 0) == 0) shared = "gait." + wave.substr(std::string(side).size());
     for (const std::string& w : {wave, shared})
       if (auto n = scalar(w); n && n->IsScalar()) return field == "mean" ? as_number(*n) : 0.0;
-    const bool span_ratio = wave.size() >= 10 && wave.compare(wave.size() - 10, 10, "span_ratio") == 0;
+    const bool span_ratio =
+        wave.size() >= 10 && wave.compare(wave.size() - 10, 10, "span_ratio") == 0;
     if (field == "mean") return span_ratio ? 1.0 : 0.0;
     if (field == "amplitude" || field == "phase") return 0.0;
   }

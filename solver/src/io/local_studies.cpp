@@ -11,7 +11,9 @@ namespace {
 
 using nlohmann::json;
 
-double clean(double v) { return v == 0.0 ? 0.0 : v; }
+double clean(double v) {
+  return v == 0.0 ? 0.0 : v;
+}
 
 json matrix(const Eigen::MatrixXd& m) {
   json out = json::array();
@@ -76,21 +78,23 @@ std::string trim_json(const studies::TrimResult& r, const std::vector<studies::P
   for (std::size_t i = 0; i < r.quantities.size(); ++i) {
     const auto ii = static_cast<Eigen::Index>(i);
     const double achieved = r.achieved.size() ? r.achieved(ii) : std::nan("");
-    targets.push_back({{"quantity", r.quantities[i]},
-                       {"unit", quantity_unit(r.quantities[i])},
-                       {"target", clean(r.targets(ii))},
-                       {"achieved", std::isfinite(achieved) ? json(clean(achieved)) : json(nullptr)},
-                       {"scale", r.scale(ii)},
-                       {"scaled_residual",
-                        std::isfinite(achieved) ? json(clean((achieved - r.targets(ii)) / r.scale(ii)))
-                                                : json(nullptr)}});
+    targets.push_back(
+        {{"quantity", r.quantities[i]},
+         {"unit", quantity_unit(r.quantities[i])},
+         {"target", clean(r.targets(ii))},
+         {"achieved", std::isfinite(achieved) ? json(clean(achieved)) : json(nullptr)},
+         {"scale", r.scale(ii)},
+         {"scaled_residual", std::isfinite(achieved)
+                                 ? json(clean((achieved - r.targets(ii)) / r.scale(ii)))
+                                 : json(nullptr)}});
   }
   j["targets"] = targets;
   j["residual_rms_scaled"] = r.residual;
   j["tolerance"] = tolerance;
   j["iterations"] = r.iterations;
   j["runs"] = r.runs;
-  j["jacobian"] = {{"rows", r.quantities}, {"columns", names(free)}, {"values", matrix(r.jacobian)}};
+  j["jacobian"] = {
+      {"rows", r.quantities}, {"columns", names(free)}, {"values", matrix(r.jacobian)}};
   j["condition_number"] = std::isfinite(r.condition) ? json(r.condition) : json(nullptr);
   j["active_bounds"] = r.active_bounds;
   j["residual_history"] = r.history;
@@ -122,12 +126,15 @@ Eigen::MatrixXd nondimensional(const studies::DerivativeTable& t) {
   Eigen::MatrixXd nd = t.value;
   for (Eigen::Index i = 0; i < nd.rows(); ++i) {
     const std::string unit = quantity_unit(t.quantities[static_cast<std::size_t>(i)]);
-    const double qs = unit == "N" ? q * s : unit == "N m" ? q * s * r : unit == "W" ? q * s * u : 1.0;
+    const double qs = unit == "N"     ? q * s
+                      : unit == "N m" ? q * s * r
+                      : unit == "W"   ? q * s * u
+                                      : 1.0;
     for (Eigen::Index j = 0; j < nd.cols(); ++j) {
       const auto& p = t.parameters[static_cast<std::size_t>(j)];
       const double ps = p.kind == studies::Parameter::Kind::velocity ? u
-                        : p.kind == studies::Parameter::Kind::rate ? (u > 0 ? u / r : 1.0)
-                                                                   : 1.0;
+                        : p.kind == studies::Parameter::Kind::rate   ? (u > 0 ? u / r : 1.0)
+                                                                     : 1.0;
       nd(i, j) = qs > 0 ? t.value(i, j) * ps / qs : 0.0;
     }
   }
@@ -201,7 +208,8 @@ std::map<std::string, std::string> derivative_plots(const studies::DerivativeTab
   for (Eigen::Index i = 0; i < nd.rows(); ++i) {
     const double top = nd.row(i).cwiseAbs().maxCoeff();
     for (Eigen::Index j = 0; j < nd.cols(); ++j)
-      m.z[static_cast<std::size_t>(j)][static_cast<std::size_t>(i)] = top > 0 ? nd(i, j) / top : 0.0;
+      m.z[static_cast<std::size_t>(j)][static_cast<std::size_t>(i)] =
+          top > 0 ? nd(i, j) / top : 0.0;
   }
   m.zlabel = "non-dimensional derivative / largest in its row";
   Plot p;

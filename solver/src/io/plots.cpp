@@ -52,8 +52,8 @@ struct TempFolder {
 
 bool gnuplot_available() {
   static const bool available = [] {
-    const int rc = std::system(
-        "gnuplot -e \"set terminal pngcairo; set terminal svg\" > /dev/null 2>&1");
+    const int rc =
+        std::system("gnuplot -e \"set terminal pngcairo; set terminal svg\" > /dev/null 2>&1");
     return rc == 0;
   }();
   return available;
@@ -102,7 +102,8 @@ std::map<std::string, std::string> render(const Plot& plot, const ColourMap& map
   gp << "set key " << plot.key << " noenhanced box opaque\n";
   if (plot.log_x) gp << "set logscale x\n";
   if (plot.equal_axes)
-    gp << "set size ratio -1\nset bmargin 7\nset offsets graph 0.05, graph 0.05, graph 0.08, graph 0.08\n";
+    gp << "set size ratio -1\nset bmargin 7\nset offsets graph 0.05, graph 0.05, graph 0.08, graph "
+          "0.08\n";
   std::ostringstream cmd;
   if (is_map) {
     gp << "set view map\nset pm3d map interpolate 0,0\nset palette rgb 33,13,10\n";

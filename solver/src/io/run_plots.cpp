@@ -50,7 +50,8 @@ void merge(std::map<std::string, std::string>& into, std::map<std::string, std::
 }
 
 std::string cycle_title(const RunSummary& s, const std::string& what) {
-  return what + " over the last cycle\n" + (s.title.empty() ? std::string("flapline run") : s.title);
+  return what + " over the last cycle\n" +
+         (s.title.empty() ? std::string("flapline run") : s.title);
 }
 
 }  // namespace
@@ -62,29 +63,50 @@ std::map<std::string, std::string> run_plots(const RunSummary& s, const Model& m
 
   Plot forces{cycle_title(s, "Forces"), phase_label, "force (N)", "", kAxesNote, {}};
   forces.series = {
-      history_series(rows, "X (thrust)", [](const HistoryRow& r) { return r.loads.total.force.x(); }, 1),
-      history_series(rows, "Y (side)", [](const HistoryRow& r) { return r.loads.total.force.y(); }, 2),
-      history_series(rows, "Z", [](const HistoryRow& r) { return r.loads.total.force.z(); }, 3),
-      history_series(rows, "lift = -Z", [](const HistoryRow& r) { return -r.loads.total.force.z(); }, 4, true)};
+      history_series(
+          rows, "X (thrust)", [](const HistoryRow& r) { return r.loads.total.force.x(); }, 1),
+      history_series(
+          rows, "Y (side)", [](const HistoryRow& r) { return r.loads.total.force.y(); }, 2),
+      history_series(
+          rows, "Z", [](const HistoryRow& r) { return r.loads.total.force.z(); }, 3),
+      history_series(
+          rows, "lift = -Z", [](const HistoryRow& r) { return -r.loads.total.force.z(); }, 4,
+          true)};
   merge(files, render(forces, "forces"));
 
-  Plot moments{cycle_title(s, "Moments about the body origin"), phase_label, "moment (N m)", "",
-               kAxesNote, {}};
+  Plot moments{cycle_title(s, "Moments about the body origin"),
+               phase_label,
+               "moment (N m)",
+               "",
+               kAxesNote,
+               {}};
   moments.series = {
-      history_series(rows, "L (roll)", [](const HistoryRow& r) { return r.loads.total.moment.x(); }, 1),
-      history_series(rows, "M (pitch)", [](const HistoryRow& r) { return r.loads.total.moment.y(); }, 2),
-      history_series(rows, "N (yaw)", [](const HistoryRow& r) { return r.loads.total.moment.z(); }, 3)};
+      history_series(
+          rows, "L (roll)", [](const HistoryRow& r) { return r.loads.total.moment.x(); }, 1),
+      history_series(
+          rows, "M (pitch)", [](const HistoryRow& r) { return r.loads.total.moment.y(); }, 2),
+      history_series(
+          rows, "N (yaw)", [](const HistoryRow& r) { return r.loads.total.moment.z(); }, 3)};
   merge(files, render(moments, "moments"));
 
-  Plot power{cycle_title(s, "Aerodynamic power"), phase_label, "power (W)", "",
-             "power given to the air, and actuator power (velocities relative to the body)", {}};
+  Plot power{cycle_title(s, "Aerodynamic power"),
+             phase_label,
+             "power (W)",
+             "",
+             "power given to the air, and actuator power (velocities relative to the body)",
+             {}};
   power.series = {
-      history_series(rows, "to the air", [](const HistoryRow& r) { return r.loads.power_air; }, 1),
-      history_series(rows, "actuator", [](const HistoryRow& r) { return r.loads.power_actuator; }, 2, true)};
+      history_series(
+          rows, "to the air", [](const HistoryRow& r) { return r.loads.power_air; }, 1),
+      history_series(
+          rows, "actuator", [](const HistoryRow& r) { return r.loads.power_actuator; }, 2, true)};
   merge(files, render(power, "power"));
 
   // Drive: the generalised forces of the angle joints and the power of each wing.
-  Plot torque{cycle_title(s, "Joint torques"), phase_label, "torque (N m)", "",
+  Plot torque{cycle_title(s, "Joint torques"),
+              phase_label,
+              "torque (N m)",
+              "",
               "what each joint's drive supplies (aerodynamic + inertial" +
                   std::string(model.vehicle() ? " + the wing's weight" : "") +
                   "); solid: right wing, dashed: left wing",
@@ -100,32 +122,45 @@ std::map<std::string, std::string> run_plots(const RunSummary& s, const Model& m
   torque.key = "outside right top";
   merge(files, render(torque, "drive_torque"));
 
-  Plot drive_power{cycle_title(s, "Drive power"), phase_label, "power (W)", "",
+  Plot drive_power{cycle_title(s, "Drive power"),
+                   phase_label,
+                   "power (W)",
+                   "",
                    "each wing's drive (sum over its joints) and its inertial part; solid: right, "
                    "dashed: left",
                    {}};
   for (std::size_t w = 0; w < 2; ++w) {
-    drive_power.series.push_back(history_series(rows, std::string(wing_name[w]) + " wing",
+    drive_power.series.push_back(history_series(
+        rows, std::string(wing_name[w]) + " wing",
         [w](const HistoryRow& r) { return r.loads.drive[w].power; }, 1, w == 1));
-    drive_power.series.push_back(history_series(rows, std::string(wing_name[w]) + " inertial part",
+    drive_power.series.push_back(history_series(
+        rows, std::string(wing_name[w]) + " inertial part",
         [w](const HistoryRow& r) { return r.loads.drive[w].power_inertial; }, 2, w == 1));
   }
   drive_power.key = "outside right top";
   merge(files, render(drive_power, "drive_power"));
 
-  Plot angles{cycle_title(s, "Gait"), phase_label, "angle (deg)", "span ratio (-)",
+  Plot angles{cycle_title(s, "Gait"),
+              phase_label,
+              "angle (deg)",
+              "span ratio (-)",
               "stroke: + forward; deviation: + tip up; pitch: + leading edge up (relative to the "
-              "stroke plane)", {}};
+              "stroke plane)",
+              {}};
   const char* side_name[2] = {"right", "left"};
   for (std::size_t w = 0; w < 2; ++w) {
     const bool d = w == 1;
-    angles.series.push_back(history_series(rows, std::string(side_name[w]) + " stroke",
+    angles.series.push_back(history_series(
+        rows, std::string(side_name[w]) + " stroke",
         [w](const HistoryRow& r) { return r.angles[w].stroke / kDegree; }, 1, d));
-    angles.series.push_back(history_series(rows, std::string(side_name[w]) + " deviation",
+    angles.series.push_back(history_series(
+        rows, std::string(side_name[w]) + " deviation",
         [w](const HistoryRow& r) { return r.angles[w].deviation / kDegree; }, 2, d));
-    angles.series.push_back(history_series(rows, std::string(side_name[w]) + " pitch",
+    angles.series.push_back(history_series(
+        rows, std::string(side_name[w]) + " pitch",
         [w](const HistoryRow& r) { return r.angles[w].pitch / kDegree; }, 3, d));
-    Series lam = history_series(rows, std::string(side_name[w]) + " span ratio",
+    Series lam = history_series(
+        rows, std::string(side_name[w]) + " span ratio",
         [w](const HistoryRow& r) { return r.angles[w].span_ratio; }, 4, d);
     lam.second_axis = true;
     angles.series.push_back(lam);
@@ -134,8 +169,12 @@ std::map<std::string, std::string> run_plots(const RunSummary& s, const Model& m
   merge(files, render(angles, "gait"));
 
   // Spanwise lift per unit span of the right wing at the requested phases and as a cycle mean.
-  Plot span{"Spanwise loading of the right wing\n" + s.title, "r / R (span fraction)",
-            "lift per unit span (N/m)", "", "lift = -Z per unit span; solid: phases, dashed: cycle mean", {}};
+  Plot span{"Spanwise loading of the right wing\n" + s.title,
+            "r / R (span fraction)",
+            "lift per unit span (N/m)",
+            "",
+            "lift = -Z per unit span; solid: phases, dashed: cycle mean",
+            {}};
   std::map<std::string, Series> by_phase;
   for (const SpanwiseRow& r : s.spanwise) {
     if (r.side != Side::right) continue;
@@ -155,8 +194,11 @@ std::map<std::string, std::string> run_plots(const RunSummary& s, const Model& m
   const Planform& pf = model.planform();
   const Strips& st = model.strips();
   Plot plan{"Planform of the right wing with its " + std::to_string(st.size()) + " strips",
-            "distance from the hinge along the span (m)", "chordwise position (m, + forward)", "",
-            "the left wing is its mirror image; pitch axis at 0", {}};
+            "distance from the hinge along the span (m)",
+            "chordwise position (m, + forward)",
+            "",
+            "the left wing is its mirror image; pitch axis at 0",
+            {}};
   plan.equal_axes = true;
   Series le = named("leading edge", "lines"), te = named("trailing edge", "lines");
   const int fine = 200;
@@ -195,8 +237,11 @@ std::map<std::string, std::string> run_plots(const RunSummary& s, const Model& m
   const double c = pf.chord(r2), le2 = pf.leading_edge(r2), tw = pf.twist(r2);
   Plot stroke{"Stroke diagram of the section at r2 R = " + std::to_string(r2 * 1000).substr(0, 6) +
                   " mm (right wing)",
-              "along the stroke path (m, + forward stroke)", "out of the stroke plane (m, + up)", "",
-              "chord drawn every 1/24 cycle, dot = leading edge; stroke-plane coordinates", {}};
+              "along the stroke path (m, + forward stroke)",
+              "out of the stroke plane (m, + up)",
+              "",
+              "chord drawn every 1/24 cycle, dot = leading edge; stroke-plane coordinates",
+              {}};
   stroke.equal_axes = true;
   Series forward = named("chord, forward stroke", "vectors");
   Series backward = named("chord, backward stroke", "vectors");

@@ -62,7 +62,9 @@ void read_case_table(SweepDefinition& def) {
     if (!header) {
       std::set<std::string> seen;
       for (const std::string& c : cells) {
-        if (c.empty()) fail_at("--cases", "'" + line + "'", "every header cell must be a key path", path, lineno);
+        if (c.empty())
+          fail_at("--cases", "'" + line + "'", "every header cell must be a key path", path,
+                  lineno);
         if (!seen.insert(c).second)
           fail_at("--cases", "'" + c + "'", "each key path may head one column only", path, lineno);
       }
@@ -85,8 +87,10 @@ void read_case_table(SweepDefinition& def) {
     }
     def.cases.push_back(std::move(c));
   }
-  if (!header) fail_at("--cases", "'" + path + "'", "the file holds no header of key paths", path, lineno);
-  if (def.cases.empty()) fail_at("--cases", "'" + path + "'", "the file holds no case rows", path, lineno);
+  if (!header)
+    fail_at("--cases", "'" + path + "'", "the file holds no header of key paths", path, lineno);
+  if (def.cases.empty())
+    fail_at("--cases", "'" + path + "'", "the file holds no case rows", path, lineno);
 }
 
 double parse_cell(const std::string& s) {
@@ -162,7 +166,8 @@ void check_sweep_values(const SweepDefinition& def, const CaseLoader& loader) {
     const std::string& key = def.columns[j];
     std::vector<std::string> texts;
     if (def.design.kind == studies::DesignKind::latin) {
-      texts = {studies::shortest(def.design.keys[j].low), studies::shortest(def.design.keys[j].high)};
+      texts = {studies::shortest(def.design.keys[j].low),
+               studies::shortest(def.design.keys[j].high)};
     } else {
       std::set<std::string> seen;
       for (const studies::CaseSpec& c : def.cases)
@@ -174,7 +179,8 @@ void check_sweep_values(const SweepDefinition& def, const CaseLoader& loader) {
         (void)loader.build(studies::CaseSpec{{{key, t, false}}});
       } catch (const InputError& e) {
         if (!about_key(e, key)) continue;  // a rule between keys: decided per case
-        InputError up(e.key(), e.value().empty() ? "'" + t + "'" : e.value(), e.allowed(), e.hint());
+        InputError up(e.key(), e.value().empty() ? "'" + t + "'" : e.value(), e.allowed(),
+                      e.hint());
         up.locate(def.cases_file.empty() ? "command line (--vary " + key + ")"
                                          : def.cases_file + " (column " + key + ")",
                   0);
@@ -218,8 +224,9 @@ std::string sweep_json(const SweepDefinition& def, const Shard& shard) {
   j["cases"] = def.cases.size();
   j["fingerprint"] = def.fingerprint;
   if (shard.count > 1) j["shard"] = {{"index", shard.index}, {"count", shard.count}};
-  j["table"] = "sweep.csv: one row per case in case order; columns case, the varied keys, status, "
-               "message, cycles, then summary.json's scalars by key path";
+  j["table"] =
+      "sweep.csv: one row per case in case order; columns case, the varied keys, status, "
+      "message, cycles, then summary.json's scalars by key path";
   return j.dump(2) + "\n";
 }
 
@@ -232,9 +239,9 @@ std::string sweep_csv(const std::vector<std::string>& columns,
 
 SweepFolder::SweepFolder(fs::path dir, const SweepDefinition& def, const Shard& shard)
     : dir_(std::move(dir)), def_(def), shard_(shard), header_(studies::table_header(def.columns)) {
-  const std::string tag = std::string(kJournalTag) + "; flapline " + kVersion +
-                          "; fingerprint " + def.fingerprint + "; shard " +
-                          std::to_string(shard.index) + "/" + std::to_string(shard.count) + "\n";
+  const std::string tag = std::string(kJournalTag) + "; flapline " + kVersion + "; fingerprint " +
+                          def.fingerprint + "; shard " + std::to_string(shard.index) + "/" +
+                          std::to_string(shard.count) + "\n";
   const fs::path journal = dir_ / kJournal;
   std::error_code ec;
   if (fs::exists(journal, ec)) {
@@ -249,9 +256,9 @@ SweepFolder::SweepFolder(fs::path dir, const SweepDefinition& def, const Shard& 
                              ? first.substr(std::string(kJournalTag).size() + 2)
                              : std::string("not a sweep journal");
       if (!what.empty() && what.back() == '\n') what.pop_back();
-      throw InputError("-o", "'" + dir_.string() + "'",
-                       "the folder holds another sweep (" + what +
-                           "); choose another folder or remove it");
+      throw InputError(
+          "-o", "'" + dir_.string() + "'",
+          "the folder holds another sweep (" + what + "); choose another folder or remove it");
     }
     // Drop a row cut short by a killed job, so that appending starts on a fresh line.
     const std::size_t last = text.rfind('\n');
@@ -319,7 +326,8 @@ std::map<std::string, std::string> sweep_plots(studies::DesignKind kind,
   std::vector<std::vector<std::string>> table;
   for (const auto& [i, row] : rows) {
     std::vector<std::string> cells = studies::csv_split(row.substr(0, row.size() - 1));
-    if (cells.size() == all.size() && !cells[col("cycles")].empty()) table.push_back(std::move(cells));
+    if (cells.size() == all.size() && !cells[col("cycles")].empty())
+      table.push_back(std::move(cells));
   }
   std::map<std::string, std::string> out;
   if (table.empty() || columns.empty()) return out;
@@ -365,7 +373,8 @@ std::map<std::string, std::string> sweep_plots(studies::DesignKind kind,
   };
   if (columns.size() == 1) {
     against(0, forces, "force (N), body axes", "sweep_forces", "Mean forces against " + columns[0]);
-    against(0, moments, "moment (N m), body axes", "sweep_moments", "Mean moments against " + columns[0]);
+    against(0, moments, "moment (N m), body axes", "sweep_moments",
+            "Mean moments against " + columns[0]);
     against(0, power, "power (W)", "sweep_power", "Mean power against " + columns[0]);
     return out;
   }
@@ -388,13 +397,16 @@ std::map<std::string, std::string> sweep_plots(studies::DesignKind kind,
       m.x = xs;
       m.y = ys;
       m.zlabel = r.label;
-      m.z.assign(xs.size(), std::vector<double>(ys.size(), std::numeric_limits<double>::quiet_NaN()));
+      m.z.assign(xs.size(),
+                 std::vector<double>(ys.size(), std::numeric_limits<double>::quiet_NaN()));
       for (const auto& cells : table) {
         const auto i = std::find(xs.begin(), xs.end(), parse_cell(cells[1])) - xs.begin();
         const auto k = std::find(ys.begin(), ys.end(), parse_cell(cells[2])) - ys.begin();
-        m.z[static_cast<std::size_t>(i)][static_cast<std::size_t>(k)] = parse_cell(cells[col(r.column)]);
+        m.z[static_cast<std::size_t>(i)][static_cast<std::size_t>(k)] =
+            parse_cell(cells[col(r.column)]);
       }
-      const std::string stem = r.column == std::string("cycle_mean.lift_N") ? "sweep_lift_map" : "sweep_power_map";
+      const std::string stem =
+          r.column == std::string("cycle_mean.lift_N") ? "sweep_lift_map" : "sweep_power_map";
       if (xs.size() > 1 && ys.size() > 1)
         for (auto& [name, content] : render(p, m, stem)) out[name] = std::move(content);
     }
@@ -422,8 +434,9 @@ void merge_sweeps(const std::vector<fs::path>& shards, const fs::path& out_dir, 
         throw InputError("-o", "'" + out_dir.string() + "'",
                          "is one of the shard folders; merge into a new folder");
     if (fs::exists(out_dir / kJournal, ec))
-      throw InputError("-o", "'" + out_dir.string() + "'",
-                       "holds a sweep's journal (a sweep or shard folder); merge into a new folder");
+      throw InputError(
+          "-o", "'" + out_dir.string() + "'",
+          "holds a sweep's journal (a sweep or shard folder); merge into a new folder");
   }
   std::map<int, fs::path> seen;
   std::string fingerprint;
@@ -437,8 +450,9 @@ void merge_sweeps(const std::vector<fs::path>& shards, const fs::path& out_dir, 
     const fs::path meta = dir / "sweep.json", table = dir / "sweep.csv";
     std::error_code ec;
     if (!fs::is_regular_file(meta, ec) || !fs::is_regular_file(table, ec))
-      throw InputError("merge", "'" + dir.string() + "'",
-                       "holds no finished sweep (sweep.json and sweep.csv); finish that shard first");
+      throw InputError(
+          "merge", "'" + dir.string() + "'",
+          "holds no finished sweep (sweep.json and sweep.csv); finish that shard first");
     json j;
     int k = 0, n = 1;
     std::string fp, version;
@@ -489,20 +503,23 @@ void merge_sweeps(const std::vector<fs::path>& shards, const fs::path& out_dir, 
       line += "\n";
       const long i = studies::row_index(line, ncol);
       if (i < 0 || static_cast<std::size_t>(i) >= cases || static_cast<int>(i % n) != k)
-        throw InputError("merge", "'" + table.string() + "'", "holds a row that is not of this shard");
+        throw InputError("merge", "'" + table.string() + "'",
+                         "holds a row that is not of this shard");
       rows[static_cast<std::size_t>(i)] = line;
       ++got;
     }
-    const std::size_t expected = cases / static_cast<std::size_t>(n) +
-                                 (static_cast<std::size_t>(k) < cases % static_cast<std::size_t>(n) ? 1 : 0);
+    const std::size_t expected =
+        cases / static_cast<std::size_t>(n) +
+        (static_cast<std::size_t>(k) < cases % static_cast<std::size_t>(n) ? 1 : 0);
     if (got != expected)
       throw InputError("merge", "'" + table.string() + "'",
-                       "holds " + std::to_string(got) + " of the shard's " + std::to_string(expected) +
-                           " cases; finish that shard first");
+                       "holds " + std::to_string(got) + " of the shard's " +
+                           std::to_string(expected) + " cases; finish that shard first");
   }
   for (int k = 0; k < count; ++k)
     if (!seen.count(k))
-      throw InputError("merge", std::to_string(seen.size()) + " of " + std::to_string(count) + " shards",
+      throw InputError("merge",
+                       std::to_string(seen.size()) + " of " + std::to_string(count) + " shards",
                        "shard " + std::to_string(k) + "/" + std::to_string(count) +
                            " is missing; give every shard folder of the sweep");
   first.erase("shard");
@@ -511,7 +528,8 @@ void merge_sweeps(const std::vector<fs::path>& shards, const fs::path& out_dir, 
   out.add("sweep.json", first.dump(2) + "\n");
   if (plots) {
     if (gnuplot_available()) {
-      for (auto& [name, content] : sweep_plots(kind, columns, rows)) out.add(name, std::move(content));
+      for (auto& [name, content] : sweep_plots(kind, columns, rows))
+        out.add(name, std::move(content));
     } else if (plot_note) {
       *plot_note = "figures skipped: gnuplot (with PNG and SVG output) is not installed";
     }

@@ -28,25 +28,72 @@ std::string replace_all(std::string s, const std::string& from, const std::strin
 }
 
 /// Machine-readable files never carry a negative zero.
-double no_negative_zero(double v) { return v == 0.0 ? 0.0 : v; }
+double no_negative_zero(double v) {
+  return v == 0.0 ? 0.0 : v;
+}
 
 }  // namespace
 
 const std::vector<std::string>& history_columns() {
-  static const std::vector<std::string> c{
-      "time_s", "cycle", "phase", "X_N", "Y_N", "Z_N", "L_roll_Nm", "M_pitch_Nm", "N_yaw_Nm",
-      "lift_N", "thrust_N", "right_X_N", "right_Y_N", "right_Z_N", "right_L_roll_Nm",
-      "right_M_pitch_Nm", "right_N_yaw_Nm", "left_X_N", "left_Y_N", "left_Z_N", "left_L_roll_Nm",
-      "left_M_pitch_Nm", "left_N_yaw_Nm", "power_air_W", "power_actuator_W", "right_stroke_deg",
-      "right_deviation_deg", "right_pitch_deg", "right_span_ratio", "left_stroke_deg",
-      "left_deviation_deg", "left_pitch_deg", "left_span_ratio", "inertial_X_N",
-      "inertial_Y_N", "inertial_Z_N", "inertial_L_roll_Nm", "inertial_M_pitch_Nm",
-      "inertial_N_yaw_Nm", "total_X_N", "total_Y_N", "total_Z_N", "total_L_roll_Nm",
-      "total_M_pitch_Nm", "total_N_yaw_Nm", "power_mechanical_W", "power_inertial_W",
-      "right_inertial_X_N", "right_inertial_Y_N", "right_inertial_Z_N",
-      "right_inertial_L_roll_Nm", "right_inertial_M_pitch_Nm", "right_inertial_N_yaw_Nm",
-      "left_inertial_X_N", "left_inertial_Y_N", "left_inertial_Z_N", "left_inertial_L_roll_Nm",
-      "left_inertial_M_pitch_Nm", "left_inertial_N_yaw_Nm"};
+  static const std::vector<std::string> c{"time_s",
+                                          "cycle",
+                                          "phase",
+                                          "X_N",
+                                          "Y_N",
+                                          "Z_N",
+                                          "L_roll_Nm",
+                                          "M_pitch_Nm",
+                                          "N_yaw_Nm",
+                                          "lift_N",
+                                          "thrust_N",
+                                          "right_X_N",
+                                          "right_Y_N",
+                                          "right_Z_N",
+                                          "right_L_roll_Nm",
+                                          "right_M_pitch_Nm",
+                                          "right_N_yaw_Nm",
+                                          "left_X_N",
+                                          "left_Y_N",
+                                          "left_Z_N",
+                                          "left_L_roll_Nm",
+                                          "left_M_pitch_Nm",
+                                          "left_N_yaw_Nm",
+                                          "power_air_W",
+                                          "power_actuator_W",
+                                          "right_stroke_deg",
+                                          "right_deviation_deg",
+                                          "right_pitch_deg",
+                                          "right_span_ratio",
+                                          "left_stroke_deg",
+                                          "left_deviation_deg",
+                                          "left_pitch_deg",
+                                          "left_span_ratio",
+                                          "inertial_X_N",
+                                          "inertial_Y_N",
+                                          "inertial_Z_N",
+                                          "inertial_L_roll_Nm",
+                                          "inertial_M_pitch_Nm",
+                                          "inertial_N_yaw_Nm",
+                                          "total_X_N",
+                                          "total_Y_N",
+                                          "total_Z_N",
+                                          "total_L_roll_Nm",
+                                          "total_M_pitch_Nm",
+                                          "total_N_yaw_Nm",
+                                          "power_mechanical_W",
+                                          "power_inertial_W",
+                                          "right_inertial_X_N",
+                                          "right_inertial_Y_N",
+                                          "right_inertial_Z_N",
+                                          "right_inertial_L_roll_Nm",
+                                          "right_inertial_M_pitch_Nm",
+                                          "right_inertial_N_yaw_Nm",
+                                          "left_inertial_X_N",
+                                          "left_inertial_Y_N",
+                                          "left_inertial_Z_N",
+                                          "left_inertial_L_roll_Nm",
+                                          "left_inertial_M_pitch_Nm",
+                                          "left_inertial_N_yaw_Nm"};
   return c;
 }
 
@@ -173,10 +220,19 @@ std::string drive_csv(const RunSummary& s) {
 }
 
 const std::vector<std::string>& spanwise_numeric_columns() {
-  static const std::vector<std::string> c{
-      "strip", "radius_m", "span_fraction", "chord_m", "X_per_span_N_m", "Y_per_span_N_m",
-      "Z_per_span_N_m", "lift_per_span_N_m", "normal_force_per_span_N_m", "circulation_m2_s",
-      "alpha_deg", "tangential_speed_m_s", "induced_wash_m_s"};
+  static const std::vector<std::string> c{"strip",
+                                          "radius_m",
+                                          "span_fraction",
+                                          "chord_m",
+                                          "X_per_span_N_m",
+                                          "Y_per_span_N_m",
+                                          "Z_per_span_N_m",
+                                          "lift_per_span_N_m",
+                                          "normal_force_per_span_N_m",
+                                          "circulation_m2_s",
+                                          "alpha_deg",
+                                          "tangential_speed_m_s",
+                                          "induced_wash_m_s"};
   return c;
 }
 
@@ -268,10 +324,14 @@ std::string state_space_json(const StateSpace& ss, const Model& model) {
   j["time_s"] = ss.time;
   j["strips_per_wing"] = n;
   j["equations"] = "dx/dt = A x + B u, y = C x + D u";
-  j["state"] = "x = [x1 of strips 1..N of the right wing, then of the left wing; x2 likewise] "
-               "(lag states, m/s): " + std::to_string(ss.A.rows()) + " entries";
-  j["input"] = "u = kinematic three-quarter-chord normal-wash w_3/4 of each strip (m/s), right "
-               "wing first: " + std::to_string(ss.B.cols()) + " entries";
+  j["state"] =
+      "x = [x1 of strips 1..N of the right wing, then of the left wing; x2 likewise] "
+      "(lag states, m/s): " +
+      std::to_string(ss.A.rows()) + " entries";
+  j["input"] =
+      "u = kinematic three-quarter-chord normal-wash w_3/4 of each strip (m/s), right "
+      "wing first: " +
+      std::to_string(ss.B.cols()) + " entries";
   j["output"] = "y = bound circulation of each strip (m^2/s), right wing first: " +
                 std::to_string(ss.C.rows()) + " entries";
   j["A"] = rows(ss.A);
@@ -296,7 +356,8 @@ void OutputFolder::commit() {
   std::error_code ec;
   const bool created = !fs::exists(dir_);
   fs::create_directories(dir_, ec);
-  if (ec) throw std::runtime_error("cannot create output folder " + dir_.string() + ": " + ec.message());
+  if (ec)
+    throw std::runtime_error("cannot create output folder " + dir_.string() + ": " + ec.message());
   const std::string tag = ".tmp-" + std::to_string(::getpid());
   std::vector<fs::path> temps;
   auto clean = [&] {

@@ -59,18 +59,18 @@ Waveform::Waveform(WaveformSpec spec, const std::string& key, double scale)
         throw InputError(key + ".points", std::to_string(u.size()) + " rows",
                          "needs 4 to 2000 rows of [cycle_fraction, value]");
       if (u.front() != 0.0 || u.back() != 1.0)
-        throw InputError(key + ".points",
-                         "cycle fractions " + format_number(u.front()) + ".." +
-                             format_number(u.back()),
-                         "the first row must be at cycle fraction 0 and the last at 1");
+        throw InputError(
+            key + ".points",
+            "cycle fractions " + format_number(u.front()) + ".." + format_number(u.back()),
+            "the first row must be at cycle fraction 0 and the last at 1");
       for (std::size_t i = 0; i < u.size(); ++i) {
         require_finite(y[i], key + ".points", scale);
         if (i > 0 && !(u[i] > u[i - 1]))
           throw InputError(key + ".points", "row " + std::to_string(i + 1),
                            "cycle fractions must increase strictly");
       }
-      const double span = *std::max_element(y.begin(), y.end()) -
-                          *std::min_element(y.begin(), y.end());
+      const double span =
+          *std::max_element(y.begin(), y.end()) - *std::min_element(y.begin(), y.end());
       if (std::abs(y.back() - y.front()) > 1e-9 * std::max(1.0, span))
         throw InputError(key + ".points",
                          "first " + format_number(y.front() * scale) + ", last " +
@@ -243,8 +243,10 @@ WaveSample Waveform::unit_cycle(double u) const {
       const double h = x[j + 1] - x[j];
       const double A = (x[j + 1] - v) / h, B = (v - x[j]) / h;
       const double m0 = spline_second_[j], m1 = spline_second_[j + 1];
-      out.value = A * y[j] + B * y[j + 1] + ((A * A * A - A) * m0 + (B * B * B - B) * m1) * h * h / 6;
-      out.rate = (y[j + 1] - y[j]) / h - (3 * A * A - 1) / 6 * h * m0 + (3 * B * B - 1) / 6 * h * m1;
+      out.value =
+          A * y[j] + B * y[j + 1] + ((A * A * A - A) * m0 + (B * B * B - B) * m1) * h * h / 6;
+      out.rate =
+          (y[j + 1] - y[j]) / h - (3 * A * A - 1) / 6 * h * m0 + (3 * B * B - 1) / 6 * h * m1;
       out.accel = A * m0 + B * m1;
       return out;
     }

@@ -53,8 +53,8 @@ WingPose wing_pose(const WingMotion& m, double t) {
   const Eigen::Vector3d a2_dot = (phi.rate * a1).cross(a2);
   const Eigen::Vector3d a3_dot = w2.cross(a3);
   const Eigen::Vector3d omega_s = w2 + psi.rate * a3;
-  const Eigen::Vector3d omega_s_dot = phi.accel * a1 - theta.accel * a2 - theta.rate * a2_dot +
-                                      psi.accel * a3 + psi.rate * a3_dot;
+  const Eigen::Vector3d omega_s_dot =
+      phi.accel * a1 - theta.accel * a2 - theta.rate * a2_dot + psi.accel * a3 + psi.rate * a3_dot;
 
   p.rotation = m.stroke_plane * rzx * rotation_y(psi.value);
   p.chord_axis = p.rotation.col(0);

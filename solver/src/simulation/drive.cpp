@@ -9,13 +9,13 @@ namespace {
 
 /// Sums over one wing's mass elements (virtual frame).
 struct MassSums {
-  Eigen::Vector3d force = Eigen::Vector3d::Zero();        ///< Σ m a
-  Eigen::Vector3d hinge_moment = Eigen::Vector3d::Zero(); ///< Σ (d × m a + Ḣ), d = x − h
-  Eigen::Vector3d origin_moment = Eigen::Vector3d::Zero();///< Σ (x × m a + Ḣ)
-  double span = 0.0;  ///< Σ m a·∂x/∂λ + the stretching term
-  Eigen::Vector3d weight = Eigen::Vector3d::Zero();        ///< Σ m g
-  Eigen::Vector3d weight_moment = Eigen::Vector3d::Zero(); ///< Σ d × m g
-  double weight_span = 0.0;                                ///< Σ m g·∂x/∂λ
+  Eigen::Vector3d force = Eigen::Vector3d::Zero();          ///< Σ m a
+  Eigen::Vector3d hinge_moment = Eigen::Vector3d::Zero();   ///< Σ (d × m a + Ḣ), d = x − h
+  Eigen::Vector3d origin_moment = Eigen::Vector3d::Zero();  ///< Σ (x × m a + Ḣ)
+  double span = 0.0;                                 ///< Σ m a·∂x/∂λ + the stretching term
+  Eigen::Vector3d weight = Eigen::Vector3d::Zero();  ///< Σ m g
+  Eigen::Vector3d weight_moment = Eigen::Vector3d::Zero();  ///< Σ d × m g
+  double weight_span = 0.0;                                 ///< Σ m g·∂x/∂λ
 };
 
 MassSums mass_sums(const MassElements& me, const WingMotion& m, const WingPose& p,
@@ -23,8 +23,8 @@ MassSums mass_sums(const MassElements& me, const WingMotion& m, const WingPose& 
   MassSums out;
   const Eigen::Vector3d& W = m.rates;  // body rates, constant in body axes
   const Eigen::Vector3d& wr = p.omega_rel;
-  const Eigen::Vector3d& wr_dot = p.omega_rel_dot;  // body-frame derivative
-  const Eigen::Vector3d& w = p.omega;               // absolute rate of the wing
+  const Eigen::Vector3d& wr_dot = p.omega_rel_dot;     // body-frame derivative
+  const Eigen::Vector3d& w = p.omega;                  // absolute rate of the wing
   const Eigen::Vector3d w_dot = wr_dot + W.cross(wr);  // its inertial derivative
   const double lam = p.span_ratio, lam_d = p.span_ratio_rate, lam_dd = p.span_ratio_accel;
   const Eigen::Vector3d& es = p.span_axis;
@@ -42,8 +42,7 @@ MassSums mass_sums(const MassElements& me, const WingMotion& m, const WingPose& 
     const Eigen::Vector3d v_rel = p.hinge_velocity + lam_d * r * es + wr.cross(d);
     const Eigen::Vector3d a_rel = p.hinge_accel + lam_dd * r * es + 2.0 * lam_d * r * es_rel +
                                   wr_dot.cross(d) + wr.cross(wr.cross(d));
-    const Eigen::Vector3d a =
-        a_rel + 2.0 * W.cross(v_rel) + W.cross(W.cross(x)) + frame_base;
+    const Eigen::Vector3d a = a_rel + 2.0 * W.cross(v_rel) + W.cross(W.cross(x)) + frame_base;
     const Eigen::Vector3d ma = mass * a;
     // Thin strip about its centre of mass: I_s = m c²/12, I_c = m(λΔr)²/12, I_n = I_s + I_c;
     // Ḣ = Iω̇ + ω × Iω + İ_local ω, with İ_c = İ_n = 2(mΔr²/12)λλ̇.
@@ -74,9 +73,9 @@ void add_drive(const Model& model, const Workspace& ws, double t, LoadSample& ou
   const StripLoads& L = ws.loads;
   const double f = model.frequency();
   const bool with_weight = model.vehicle().has_value();
-  const Eigen::Vector3d g =
-      with_weight ? gravity_body(model.vehicle()->roll, model.vehicle()->pitch)
-                  : Eigen::Vector3d::Zero();
+  const Eigen::Vector3d g = with_weight
+                                ? gravity_body(model.vehicle()->roll, model.vehicle()->pitch)
+                                : Eigen::Vector3d::Zero();
   const Eigen::Vector3d down(0.0, 0.0, 1.0);
   out.inertial = Wrench{};
   out.power_mechanical = out.power_inertial = 0.0;
@@ -90,9 +89,9 @@ void add_drive(const Model& model, const Workspace& ws, double t, LoadSample& ou
               p.span_ratio_rate, m.plunge.at(t, f).rate};
     // Joint axes: ω_rel = φ̇ u_φ + θ̇ u_θ + ψ̇ u_ψ with u_φ = R_β(−z), u_θ = −R_β R_z(−φ)x,
     // u_ψ = e_s (wing_pose, DESIGN §2).
-    const std::array<Eigen::Vector3d, 3> axis{
-        m.stroke_plane * Eigen::Vector3d(0.0, 0.0, -1.0),
-        -(m.stroke_plane * rotation_z(-p.stroke).col(0)), p.span_axis};
+    const std::array<Eigen::Vector3d, 3> axis{m.stroke_plane * Eigen::Vector3d(0.0, 0.0, -1.0),
+                                              -(m.stroke_plane * rotation_z(-p.stroke).col(0)),
+                                              p.span_axis};
     Eigen::Vector3d moment = Eigen::Vector3d::Zero(), force = Eigen::Vector3d::Zero();
     double span = 0.0;
     for (Eigen::Index i = 0; i < n; ++i) {

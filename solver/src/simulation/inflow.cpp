@@ -35,8 +35,9 @@ double mean_span_ratio_squared(const Model& model) {
   double sum = 0.0;
   for (int s = 0; s < 2; ++s)
     for (int j = 0; j < n; ++j) {
-      const double lam =
-          model.motion(static_cast<Side>(s)).span_ratio.at(j * model.period() / n, model.frequency()).value;
+      const double lam = model.motion(static_cast<Side>(s))
+                             .span_ratio.at(j * model.period() / n, model.frequency())
+                             .value;
       sum += lam * lam;
     }
   return sum / (2.0 * n);
@@ -67,8 +68,8 @@ RunSummary simulate_with_inflow(const Model& model, Workspace& ws, const RunCont
     const double b = 2.0 * (std::abs(model.spec().wing.hinge.y()) + span);  // tip to tip
     area = kPi * b * b / 4.0;
   }
-  const Eigen::Vector3d along = freestream.norm() > 0.0 ? Eigen::Vector3d(freestream.normalized())
-                                                        : Eigen::Vector3d::Zero();
+  const Eigen::Vector3d along =
+      freestream.norm() > 0.0 ? Eigen::Vector3d(freestream.normalized()) : Eigen::Vector3d::Zero();
   Eigen::Vector3d w_vec = Eigen::Vector3d::Zero();
   Eigen::VectorXd state;
   RunSummary last;
@@ -120,9 +121,10 @@ RunSummary simulate_with_inflow(const Model& model, Workspace& ws, const RunCont
   last.cycles = cycles;
   last.periodicity_residual = std::isfinite(change) ? change : 0.0;
   last.model_label += ", " + std::string(to_string(ao.inflow)) + " inflow";
-  last.warnings.erase(std::remove_if(last.warnings.begin(), last.warnings.end(),
-                                     [](const std::string& w) { return w.rfind("cycle means", 0) == 0; }),
-                      last.warnings.end());
+  last.warnings.erase(
+      std::remove_if(last.warnings.begin(), last.warnings.end(),
+                     [](const std::string& w) { return w.rfind("cycle means", 0) == 0; }),
+      last.warnings.end());
   if (converged) {
     last.status = RunStatus::converged;
     last.message = "converged after " + std::to_string(cycles) + " cycles (with the inflow)";
@@ -162,8 +164,9 @@ RunSummary simulate_with_inflow(const Model& model, Workspace& ws, const RunCont
   r.momentum_residual = residual;
   last.inflow = r;
   if (disc && freestream.dot(direction) < -1e-9 * std::max(1.0, freestream.norm()))
-    last.warnings.push_back("the air passes the stroke disc against the induced flow (descent): "
-                            "momentum theory fails there (vortex-ring state); treat w0 as a rough guess");
+    last.warnings.push_back(
+        "the air passes the stroke disc against the induced flow (descent): "
+        "momentum theory fails there (vortex-ring state); treat w0 as a rough guess");
   if (!(thrust > 0.0))
     last.warnings.push_back("the mean force along the inflow direction is not a thrust (T = " +
                             format_number(thrust) + " N): no inflow was applied");

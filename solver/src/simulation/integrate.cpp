@@ -27,7 +27,8 @@ void check_loads(const Model& model, const Workspace& ws, double t) {
   for (Eigen::Index k = 0; k < model.strip_count(); ++k) {
     if (!std::isfinite(ws.tangential(k)) || !std::isfinite(ws.w_three_quarter(k)))
       throw NumericalError(t, strip_name(model, k), "section velocity");
-    if (!std::isfinite(L.circulation(k))) throw NumericalError(t, strip_name(model, k), "circulation");
+    if (!std::isfinite(L.circulation(k)))
+      throw NumericalError(t, strip_name(model, k), "circulation");
     if (!L.force_quarter.col(k).allFinite() || !L.force_mid.col(k).allFinite())
       throw NumericalError(t, strip_name(model, k), "force");
     if (!L.couple.col(k).allFinite()) throw NumericalError(t, strip_name(model, k), "couple");
@@ -173,13 +174,12 @@ void exponential_step(const Model& model, Workspace& ws, const AeroModel& aero, 
   st.rate0 = stage_speeds(model, ws, t).rate;
   st.rate_half = stage_speeds(model, ws, t + 0.5 * dt).rate;
   st.rate1 = stage_speeds(model, ws, t + dt).rate;
-  const Eigen::Index phase =
-      cycle_slot(t, model.frequency(), static_cast<Eigen::Index>(model.simulation().steps_per_cycle));
-  st.exponential.step(
-      [&](const Eigen::VectorXd& x, double time, Eigen::VectorXd& dxdt) {
-        aero.derivative(model, ws, time, x, dxdt);
-      },
-      ws.state, t, dt, st.rate0, st.rate_half, st.rate1, model.periodic_kinematics() ? phase : -1);
+  const Eigen::Index phase = cycle_slot(
+      t, model.frequency(), static_cast<Eigen::Index>(model.simulation().steps_per_cycle));
+  st.exponential.step([&](const Eigen::VectorXd& x, double time,
+                          Eigen::VectorXd& dxdt) { aero.derivative(model, ws, time, x, dxdt); },
+                      ws.state, t, dt, st.rate0, st.rate_half, st.rate1,
+                      model.periodic_kinematics() ? phase : -1);
 }
 
 }  // namespace
@@ -205,7 +205,8 @@ void advance(const Model& model, Workspace& ws, double t, double dt) {
       aero.derivative(model, ws, time, x, dxdt);
     };
     ws.stepper->rk4.adjust_size(ws.state);  // sizes the stepper's buffers once; a no-op afterwards
-    const NoMallocScope no_malloc;  // proves the step allocation-free in FLAPLINE_CHECK_NO_MALLOC builds
+    const NoMallocScope
+        no_malloc;  // proves the step allocation-free in FLAPLINE_CHECK_NO_MALLOC builds
     ws.stepper->rk4.do_step(system, ws.state, t, dt);
   }
   if (!ws.state.allFinite()) {

@@ -53,8 +53,8 @@ std::string header(const RunSummary& s) {
 std::string wrench_lines(const RunSummary& s, const Wrench& w, const char* indent) {
   const double f = s.averages.force_rms, m = f * s.derived.span;
   std::string out;
-  out += line("%slift %+.5g N   thrust %+.5g N   side force %+.5g N", indent, shown(-w.force.z(), f),
-              shown(w.force.x(), f), shown(w.force.y(), f));
+  out += line("%slift %+.5g N   thrust %+.5g N   side force %+.5g N", indent,
+              shown(-w.force.z(), f), shown(w.force.x(), f), shown(w.force.y(), f));
   out += line("%sroll L %+.5g N m   pitch M %+.5g N m   yaw N %+.5g N m", indent,
               shown(w.moment.x(), m), shown(w.moment.y(), m), shown(w.moment.z(), m));
   return out;
@@ -71,12 +71,14 @@ std::string footer(const RunSummary& s) {
 /// The drive section of the full report: per wing and joint, RMS and peak torque, power bounds.
 std::string drive_lines(const RunSummary& s) {
   const CycleStats& a = s.averages;
-  std::string out = "drive (generalised forces the joints supply; power with perfect elastic storage = mean, "
-                    "with none = mean of the positive part):\n";
-  out += line(" pair: mechanical power %.5g W (perfect storage), %.5g W (no storage), peak %.5g W; "
-              "inertial power mean %.3g W",
-              a.power_mechanical_storage_perfect, a.power_mechanical_storage_none,
-              a.power_mechanical_peak, shown(a.power_inertial_mean, a.power_mechanical_peak));
+  std::string out =
+      "drive (generalised forces the joints supply; power with perfect elastic storage = mean, "
+      "with none = mean of the positive part):\n";
+  out += line(
+      " pair: mechanical power %.5g W (perfect storage), %.5g W (no storage), peak %.5g W; "
+      "inertial power mean %.3g W",
+      a.power_mechanical_storage_perfect, a.power_mechanical_storage_none, a.power_mechanical_peak,
+      shown(a.power_inertial_mean, a.power_mechanical_peak));
   out += line(" lift / drive power %s N/W (perfect storage), %s N/W (no storage)",
               opt(s.derived.lift_per_power_storage_perfect).c_str(),
               opt(s.derived.lift_per_power_storage_none).c_str());
@@ -89,12 +91,13 @@ std::string drive_lines(const RunSummary& s) {
                 d.power_peak);
     for (std::size_t j = 0; j < static_cast<std::size_t>(kJoints); ++j) {
       const JointStats& q = d.joint[j];
-      out += line("   %-10s torque RMS %.4g %s (aero %.4g, inertial %.4g), peak %.4g %s; power "
-                  "%.4g W / %.4g W, peak %.4g W",
-                  names[j], q.torque_rms, units[j], shown(q.torque_aero_rms, q.torque_peak),
-                  shown(q.torque_inertial_rms, q.torque_peak), q.torque_peak, units[j],
-                  shown(q.power_storage_perfect, q.power_peak),
-                  shown(q.power_storage_none, q.power_peak), q.power_peak);
+      out += line(
+          "   %-10s torque RMS %.4g %s (aero %.4g, inertial %.4g), peak %.4g %s; power "
+          "%.4g W / %.4g W, peak %.4g W",
+          names[j], q.torque_rms, units[j], shown(q.torque_aero_rms, q.torque_peak),
+          shown(q.torque_inertial_rms, q.torque_peak), q.torque_peak, units[j],
+          shown(q.power_storage_perfect, q.power_peak), shown(q.power_storage_none, q.power_peak),
+          q.power_peak);
     }
   }
   return out;
@@ -109,16 +112,18 @@ std::string RunSummary::brief_report() const {
   out += line("  power to the air: mean %.5g W, peak %.5g W; actuator mean %.5g W",
               averages.power_air_mean, averages.power_air_peak, averages.power_actuator_mean);
   if (averages.power_mechanical_storage_none != 0.0)
-    out += line("  drive power: %.5g W with perfect elastic storage, %.5g W with none; lift/power "
-                "%s N/W (no storage)",
-                averages.power_mechanical_storage_perfect, averages.power_mechanical_storage_none,
-                opt(derived.lift_per_power_storage_none).c_str());
+    out += line(
+        "  drive power: %.5g W with perfect elastic storage, %.5g W with none; lift/power "
+        "%s N/W (no storage)",
+        averages.power_mechanical_storage_perfect, averages.power_mechanical_storage_none,
+        opt(derived.lift_per_power_storage_none).c_str());
   if (inflow)
     out += line("  inflow: w0 %.5g m/s (%s), induced power %.5g W", inflow->w0,
                 std::string(to_string(inflow->kind)).c_str(), inflow->induced_power);
-  out += line("  mean lift coefficient %s, Re %s, reduced frequency %s, advance ratio %s",
-              opt(derived.mean_lift_coefficient).c_str(), opt(derived.reynolds_number, "%.0f").c_str(),
-              opt(derived.reduced_frequency).c_str(), opt(derived.advance_ratio).c_str());
+  out +=
+      line("  mean lift coefficient %s, Re %s, reduced frequency %s, advance ratio %s",
+           opt(derived.mean_lift_coefficient).c_str(), opt(derived.reynolds_number, "%.0f").c_str(),
+           opt(derived.reduced_frequency).c_str(), opt(derived.advance_ratio).c_str());
   out += line("  reverse flow: %.1f %% of strip samples", 100.0 * derived.reverse_flow_fraction);
   return out + footer(*this);
 }
@@ -134,7 +139,7 @@ std::string RunSummary::full_report() const {
               f.span, f.area, f.mean_chord, f.aspect_ratio);
   out += line("      r1 %.4f, r2 %.4f, r3 %.4f (non-dimensional radii of moments of area)", f.r1,
               f.r2, f.r3);
-  out += line("gait: stroke amplitude (peak to peak) %.4g deg; airspeed %.4g m/s", 
+  out += line("gait: stroke amplitude (peak to peak) %.4g deg; airspeed %.4g m/s",
               f.stroke_peak_to_peak / kDegree, f.airspeed);
   out += line("reference speed U_ref %.5g m/s (RMS at r2 R)", f.reference_speed);
   out += "cycle means, body axes (x forward, y right, z down; lift = -Z, thrust = X):\n";
@@ -150,13 +155,15 @@ std::string RunSummary::full_report() const {
               averages.induced_drag_mean);
   out += drive_lines(*this);
   if (inflow)
-    out += line(" inflow (%s): w0 %.5g m/s over a disc of %.5g m^2 carrying %.5g N; induced power "
-                "%.5g W, Rankine-Froude ideal %.5g W",
-                std::string(to_string(inflow->kind)).c_str(), inflow->w0, inflow->area,
-                inflow->thrust, inflow->induced_power, inflow->ideal_power);
-  out += line(" mean lift coefficient %s, Reynolds number %s, reduced frequency %s, advance ratio %s",
-              opt(f.mean_lift_coefficient).c_str(), opt(f.reynolds_number, "%.0f").c_str(),
-              opt(f.reduced_frequency).c_str(), opt(f.advance_ratio).c_str());
+    out += line(
+        " inflow (%s): w0 %.5g m/s over a disc of %.5g m^2 carrying %.5g N; induced power "
+        "%.5g W, Rankine-Froude ideal %.5g W",
+        std::string(to_string(inflow->kind)).c_str(), inflow->w0, inflow->area, inflow->thrust,
+        inflow->induced_power, inflow->ideal_power);
+  out +=
+      line(" mean lift coefficient %s, Reynolds number %s, reduced frequency %s, advance ratio %s",
+           opt(f.mean_lift_coefficient).c_str(), opt(f.reynolds_number, "%.0f").c_str(),
+           opt(f.reduced_frequency).c_str(), opt(f.advance_ratio).c_str());
   out += line(" reverse flow %.1f %%, |alpha| > 30 deg %.1f %% of strip samples",
               100.0 * f.reverse_flow_fraction, 100.0 * f.high_alpha_fraction);
   return out + footer(*this);

@@ -105,8 +105,9 @@ void kinematic_warnings(const Model& model, RunSummary& out) {
     flaps = flaps || w.maximum() - w.minimum() > 1e-9;
   }
   if (!flaps && (f.velocity - f.wind).norm() == 0.0 && f.rates.norm() == 0.0)
-    out.warnings.push_back("the stroke is constant and the body meets no stream: the wings do "
-                           "not flap (check gait.stroke: an amplitude of 0?)");
+    out.warnings.push_back(
+        "the stroke is constant and the body meets no stream: the wings do "
+        "not flap (check gait.stroke: an amplitude of 0?)");
   // The right wing's outline (leading and trailing edges at root and tip) must stay on its own
   // side of the body's plane of symmetry, where the left wing is its mirror image.
   const Strips& st = model.strips();

@@ -1,8 +1,8 @@
 #include "flapline/simulation/wrench.hpp"
 
-#include "flapline/common/math.hpp"
 #include "flapline/case/model.hpp"
 #include "flapline/case/workspace.hpp"
+#include "flapline/common/math.hpp"
 #include "flapline/simulation/drive.hpp"
 
 namespace flapline {
@@ -45,8 +45,8 @@ LoadSample sum_loads(const Model& model, const Workspace& ws, double t) {
                         ws.poses[k < n ? 0 : 1].span_ratio * model.pair().width(k);
   if (model.aero_options().profile_drag.law != ProfileDragLaw::none)
     for (Eigen::Index k = 0; k < 2 * n; ++k)
-      out.profile_drag += k < n ? Eigen::Vector3d(L.profile_drag.col(k))
-                                : mirror(L.profile_drag.col(k));
+      out.profile_drag +=
+          k < n ? Eigen::Vector3d(L.profile_drag.col(k)) : mirror(L.profile_drag.col(k));
   add_drive(model, ws, t, out);
   return out;
 }

@@ -8,8 +8,8 @@
 namespace flapline::studies {
 
 std::vector<std::string> derivative_quantities() {
-  return {"cycle_mean.X_N",         "cycle_mean.Y_N",         "cycle_mean.Z_N",
-          "cycle_mean.L_roll_Nm",   "cycle_mean.M_pitch_Nm",  "cycle_mean.N_yaw_Nm",
+  return {"cycle_mean.X_N",       "cycle_mean.Y_N",        "cycle_mean.Z_N",
+          "cycle_mean.L_roll_Nm", "cycle_mean.M_pitch_Nm", "cycle_mean.N_yaw_Nm",
           "power.actuator_mean_W"};
 }
 
@@ -64,7 +64,8 @@ DerivativeTable derivatives(const std::vector<Parameter>& params,
   t.flagged.setConstant(m, n, false);
   auto values = [&](const RunSummary& r) {
     Eigen::VectorXd v(m);
-    for (Eigen::Index i = 0; i < m; ++i) v(i) = summary_value(r, quantities[static_cast<std::size_t>(i)]);
+    for (Eigen::Index i = 0; i < m; ++i)
+      v(i) = summary_value(r, quantities[static_cast<std::size_t>(i)]);
     return v;
   };
   const Eigen::VectorXd f0 = values(t.base);
@@ -107,7 +108,7 @@ DerivativeTable derivatives(const std::vector<Parameter>& params,
     for (Eigen::Index i = 0; i < m; ++i) {
       const std::string& q = quantities[static_cast<std::size_t>(i)];
       const QuantityKind k = quantity_kind(q);
-      const double scale = k == QuantityKind::force ? force
+      const double scale = k == QuantityKind::force    ? force
                            : k == QuantityKind::moment ? force * span
                                                        : power;
       const double floor = 1e-9 * scale / h;

@@ -33,8 +33,9 @@ double number(const std::string& text, const std::string& what, const std::strin
   const auto r = std::from_chars(text.data(), end, v);
   if (text.empty() || r.ec != std::errc() || r.ptr != end || !std::isfinite(v))
     throw InputError(what + " " + key, "'" + spec + "'",
-                     "'" + text + "' is not a number; VALUES is a list a,b,c, a range "
-                     "start:stop:count or log:start:stop:count");
+                     "'" + text +
+                         "' is not a number; VALUES is a list a,b,c, a range "
+                         "start:stop:count or log:start:stop:count");
   return v;
 }
 
@@ -63,8 +64,7 @@ KeyValues parse_vary(const std::string& spec, const std::string& what) {
   KeyValues kv;
   kv.key = trim(spec.substr(0, eq));
   const std::string values = trim(spec.substr(eq + 1));
-  if (values.empty())
-    throw InputError(what + " " + kv.key, "'" + spec + "'", "VALUES is empty");
+  if (values.empty()) throw InputError(what + " " + kv.key, "'" + spec + "'", "VALUES is empty");
   const std::vector<std::string> parts = split(values, ':');
   const bool log = parts.size() > 1 && parts[0] == "log";
   if (parts.size() == 1) {  // a list
@@ -141,9 +141,10 @@ std::vector<CaseSpec> make_cases(const Design& design) {
       std::size_t total = dims == 0 ? 0 : 1;
       for (const KeyValues& k : design.keys) {
         if (total > kMaxCases / std::max<std::size_t>(k.texts.size(), 1))
-          throw InputError("--vary", "a grid of more than " + std::to_string(kMaxCases) + " cases",
-                           "a sweep holds at most " + std::to_string(kMaxCases) +
-                               " cases; use fewer values, shards of a latin design, or several sweeps");
+          throw InputError(
+              "--vary", "a grid of more than " + std::to_string(kMaxCases) + " cases",
+              "a sweep holds at most " + std::to_string(kMaxCases) +
+                  " cases; use fewer values, shards of a latin design, or several sweeps");
         total *= k.texts.size();
       }
       cases.reserve(total);
@@ -177,9 +178,8 @@ std::vector<CaseSpec> make_cases(const Design& design) {
         CaseSpec cs;
         for (std::size_t j = 0; j < dims; ++j) {
           const KeyValues& k = design.keys[j];
-          const double v = k.kind == KeyValues::Kind::log
-                               ? k.low * std::pow(k.high / k.low, row[j])
-                               : k.low + row[j] * (k.high - k.low);
+          const double v = k.kind == KeyValues::Kind::log ? k.low * std::pow(k.high / k.low, row[j])
+                                                          : k.low + row[j] * (k.high - k.low);
           cs.overrides.push_back({k.key, shortest(v), false});
         }
         cases.push_back(std::move(cs));

@@ -17,8 +17,7 @@ std::string receive_text(int source, int tag, MPI_Status& status) {
   int bytes = 0;
   MPI_Get_count(&status, MPI_CHAR, &bytes);
   std::string text(static_cast<std::size_t>(bytes), '\0');
-  MPI_Recv(text.data(), bytes, MPI_CHAR, status.MPI_SOURCE, tag, MPI_COMM_WORLD,
-           MPI_STATUS_IGNORE);
+  MPI_Recv(text.data(), bytes, MPI_CHAR, status.MPI_SOURCE, tag, MPI_COMM_WORLD, MPI_STATUS_IGNORE);
   return text;
 }
 
@@ -42,7 +41,9 @@ Session::Session(int* argc, char*** argv) {
   MPI_Comm_free(&node);
 }
 
-Session::~Session() { MPI_Finalize(); }
+Session::~Session() {
+  MPI_Finalize();
+}
 
 void Session::abort(int code) const {
   MPI_Abort(MPI_COMM_WORLD, code);
@@ -52,7 +53,7 @@ void Session::abort(int code) const {
 void distribute(const Session& session, const std::vector<CaseSpec>& cases,
                 const std::vector<std::size_t>& indices, const CaseBuilderFactory& factory,
                 const RunnerOptions& options, const RowFormatter& format,
-                const std::function<void(std::size_t, const std::string&)> & on_row) {
+                const std::function<void(std::size_t, const std::string&)>& on_row) {
   if (session.size() < 2) throw std::logic_error("distribute needs at least two MPI ranks");
   const int threads = options.threads > 0 ? options.threads : 1;
   if (session.rank() == 0) {
@@ -85,8 +86,7 @@ void distribute(const Session& session, const std::vector<CaseSpec>& cases,
   }
   std::string done = std::to_string(threads) + "\n";
   for (;;) {
-    MPI_Send(done.data(), static_cast<int>(done.size()), MPI_CHAR, 0, kTagRequest,
-             MPI_COMM_WORLD);
+    MPI_Send(done.data(), static_cast<int>(done.size()), MPI_CHAR, 0, kTagRequest, MPI_COMM_WORLD);
     MPI_Status status;
     MPI_Probe(0, kTagWork, MPI_COMM_WORLD, &status);
     int count = 0;

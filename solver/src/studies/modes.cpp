@@ -32,7 +32,8 @@ const std::vector<std::string>& LinearModel::state_names() {
 }
 
 const std::vector<std::string>& LinearModel::state_units() {
-  static const std::vector<std::string> u{"m/s", "m/s", "m/s", "rad/s", "rad/s", "rad/s", "rad", "rad"};
+  static const std::vector<std::string> u{"m/s",   "m/s",   "m/s", "rad/s",
+                                          "rad/s", "rad/s", "rad", "rad"};
   return u;
 }
 
@@ -49,8 +50,8 @@ LinearModel linear_model(const LinearModelInput& in) {
   // Translational: V̇ = F/m + g_B − ω×V.
   out.A.block<3, 3>(0, 0) = in.force_state.leftCols<3>() / m - cross_matrix(w);
   out.A.block<3, 3>(0, 3) = in.force_state.rightCols<3>() / m + cross_matrix(V);
-  out.A.block<3, 1>(0, 6) = g * Eigen::Vector3d(0.0, std::cos(phi) * std::cos(th),
-                                                -std::sin(phi) * std::cos(th));
+  out.A.block<3, 1>(0, 6) =
+      g * Eigen::Vector3d(0.0, std::cos(phi) * std::cos(th), -std::sin(phi) * std::cos(th));
   out.A.block<3, 1>(0, 7) = g * Eigen::Vector3d(-std::cos(th), -std::sin(phi) * std::sin(th),
                                                 -std::cos(phi) * std::sin(th));
   // Rotational: ω̇ = I⁻¹(M − ω×Iω); ∂(ω×Iω)/∂ω = [ω]× I − [Iω]×.
@@ -84,8 +85,9 @@ std::vector<Mode> flight_modes(const Eigen::Matrix<double, 8, 8>& A, double velo
     for (int j : lateral) cross = std::max({cross, std::abs(A(i, j)), std::abs(A(j, i))});
   const bool separate = cross <= 1e-9 * A.cwiseAbs().maxCoeff();
   const double vs = std::max(velocity_scale, 1e-9);
-  const std::array<double, 8> weight{1 / vs, 1 / vs, 1 / vs, vs / kStandardGravity,
-                                     vs / kStandardGravity, vs / kStandardGravity, 1.0, 1.0};
+  const std::array<double, 8> weight{
+      1 / vs, 1 / vs, 1 / vs, vs / kStandardGravity, vs / kStandardGravity, vs / kStandardGravity,
+      1.0,    1.0};
   std::vector<Mode> out;
   auto analyse = [&](const std::vector<int>& idx, const std::string& family) {
     const Eigen::Index n = static_cast<Eigen::Index>(idx.size());
@@ -111,12 +113,14 @@ std::vector<Mode> flight_modes(const Eigen::Matrix<double, 8, 8>& A, double velo
       std::vector<std::pair<double, int>> parts;
       for (Eigen::Index i = 0; i < n; ++i) {
         const int state = idx[static_cast<std::size_t>(i)];
-        parts.emplace_back(std::abs(es.eigenvectors()(i, e)) * weight[static_cast<std::size_t>(state)], state);
+        parts.emplace_back(
+            std::abs(es.eigenvectors()(i, e)) * weight[static_cast<std::size_t>(state)], state);
       }
       const double top = std::max_element(parts.begin(), parts.end())->first;
       std::sort(parts.rbegin(), parts.rend());
       for (const auto& [size, state] : parts)
-        if (size >= 0.3 * top && top > 0) mode.dominant.push_back(LinearModel::state_names()[static_cast<std::size_t>(state)]);
+        if (size >= 0.3 * top && top > 0)
+          mode.dominant.push_back(LinearModel::state_names()[static_cast<std::size_t>(state)]);
       out.push_back(mode);
     }
   };
@@ -161,8 +165,8 @@ ModesStudy modes_study(const Model& base, const std::vector<Parameter>& controls
   check_modes_attitude(*base.vehicle());
   std::vector<Parameter> params = Parameter::flight_state();
   params.insert(params.end(), controls.begin(), controls.end());
-  const std::vector<std::string> q{"net_mean.X_N",         "net_mean.Y_N",
-                                   "net_mean.Z_N",         "net_mean.L_roll_Nm",
+  const std::vector<std::string> q{"net_mean.X_N",        "net_mean.Y_N",
+                                   "net_mean.Z_N",        "net_mean.L_roll_Nm",
                                    "net_mean.M_pitch_Nm", "net_mean.N_yaw_Nm"};
   ModesStudy out;
   out.derivatives = derivatives(params, q, {}, factory, options);

@@ -58,8 +58,8 @@ std::string table_header(const std::vector<std::string>& varied) {
   return out + "\n";
 }
 
-std::string table_row(std::size_t index, const std::vector<std::string>& varied,
-                      const CaseSpec& c, const RunSummary& s) {
+std::string table_row(std::size_t index, const std::vector<std::string>& varied, const CaseSpec& c,
+                      const RunSummary& s) {
   std::string out = std::to_string(index);
   for (const std::string& key : varied) {
     std::string cell;

@@ -77,8 +77,8 @@ TrimResult trim(const std::vector<Parameter>& free, const std::vector<Target>& t
     if (res.balance) {
       if (!current.vehicle)
         throw InputError("--balance", "(no vehicle)", "steady flight needs the vehicle section");
-      res.names = {"steady_flight_residual.X_N",         "steady_flight_residual.Y_N",
-                   "steady_flight_residual.Z_N",         "steady_flight_residual.L_roll_Nm",
+      res.names = {"steady_flight_residual.X_N",        "steady_flight_residual.Y_N",
+                   "steady_flight_residual.Z_N",        "steady_flight_residual.L_roll_Nm",
                    "steady_flight_residual.M_pitch_Nm", "steady_flight_residual.N_yaw_Nm"};
       res.target = Eigen::VectorXd::Zero(6);
     } else {
@@ -230,9 +230,10 @@ TrimResult trim(const std::vector<Parameter>& free, const std::vector<Target>& t
       out.message = "trimmed: scaled residual " + shortest(out.residual);
     } else if (!out.active_bounds.empty()) {
       out.status = TrimStatus::not_reachable;
-      out.message = "target not reachable within the bounds (scaled residual " +
-                    shortest(out.residual) + ")";
-    } else if (res.target.size() > n && (J.transpose() * r).norm() <= 1e-6 * std::max(r.norm(), 1e-300)) {
+      out.message =
+          "target not reachable within the bounds (scaled residual " + shortest(out.residual) + ")";
+    } else if (res.target.size() > n &&
+               (J.transpose() * r).norm() <= 1e-6 * std::max(r.norm(), 1e-300)) {
       out.status = TrimStatus::not_reachable;
       out.message = "least-squares minimum above the tolerance (scaled residual " +
                     shortest(out.residual) + "): more targets than the free keys can meet";

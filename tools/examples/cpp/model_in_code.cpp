@@ -8,7 +8,7 @@ int main() {
   ModelSpec spec;
   spec.title = "invented rectangular wing hovering (example)";
   spec.wing.shape = PlanformShape::rectangular;
-  spec.wing.span = 0.05;   // m
+  spec.wing.span = 0.05;    // m
   spec.wing.chord = 0.015;  // m
   spec.strips.count = 20;
   spec.gait.frequency = 25.0;  // Hz

@@ -17,11 +17,11 @@ int main(int argc, char** argv) {
   const std::vector<studies::CaseSpec> cases = studies::make_cases(design);
   std::vector<std::size_t> all{0, 1, 2, 3, 4};
   std::map<std::size_t, std::string> rows;
-  studies::run_cases(
-      cases, all, io::case_builders(loader),  // a copy of the loader per worker thread
-      {}, [&](std::size_t i, const RunSummary& s) {
-        rows[i] = studies::table_row(i, {"gait.frequency"}, cases[i], s);
-      });
+  studies::run_cases(cases, all,
+                     io::case_builders(loader),  // a copy of the loader per worker thread
+                     {}, [&](std::size_t i, const RunSummary& s) {
+                       rows[i] = studies::table_row(i, {"gait.frequency"}, cases[i], s);
+                     });
   std::fputs(io::sweep_csv({"gait.frequency"}, rows).substr(0, 200).c_str(), stdout);
   std::printf("...\n%zu rows\n", rows.size());
   return rows.size() == 5 ? 0 : 1;

@@ -15,7 +15,8 @@ class Model;
 class Workspace;
 
 /// dx/dt for rates U/b and forcing f (arrays over the 2N strips). Allocation-free.
-inline void lag_derivative(const WagnerCoefficients& w, const Eigen::Ref<const Eigen::ArrayXd>& rate,
+inline void lag_derivative(const WagnerCoefficients& w,
+                           const Eigen::Ref<const Eigen::ArrayXd>& rate,
                            const Eigen::Ref<const Eigen::ArrayXd>& forcing,
                            const Eigen::VectorXd& x, Eigen::VectorXd& dxdt) {
   const Eigen::Index n2 = rate.size();

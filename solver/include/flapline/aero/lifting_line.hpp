@@ -45,13 +45,13 @@ class LiftingLineModel final : public AeroModel {
 
 /// Horseshoe geometry of all 2N strips in body axes at the poses in ws.poses.
 struct HorseshoeGeometry {
-  Eigen::Matrix3Xd start;    ///< A: bound segment start (its circulation runs A → B)
-  Eigen::Matrix3Xd end;      ///< B
+  Eigen::Matrix3Xd start;           ///< A: bound segment start (its circulation runs A → B)
+  Eigen::Matrix3Xd end;             ///< B
   Eigen::Matrix3Xd trailing_start;  ///< unit direction of the leg at A: −e_c at that edge
   Eigen::Matrix3Xd trailing_end;    ///< unit direction of the leg at B: −e_c at that edge
-  Eigen::Matrix3Xd control;  ///< control point: ¼-chord line at the strip centre
-  Eigen::Matrix3Xd normal;   ///< e_n of the strip (mirrored, not recomputed, on the left wing)
-  Eigen::ArrayXd core;       ///< vortex core δ = 1 % of the strip width (m)
+  Eigen::Matrix3Xd control;         ///< control point: ¼-chord line at the strip centre
+  Eigen::Matrix3Xd normal;  ///< e_n of the strip (mirrored, not recomputed, on the left wing)
+  Eigen::ArrayXd core;      ///< vortex core δ = 1 % of the strip width (m)
 };
 
 /// Geometry at the poses in ws.poses (call wing_pose / update_speeds for the time first).

@@ -17,7 +17,8 @@ inline Eigen::Vector3d segment_velocity_4pi(const Eigen::Vector3d& p1, const Eig
                                             const Eigen::Vector3d& x, double core) {
   const Eigen::Vector3d r1 = x - p1, r2 = x - p2;
   const double n1 = r1.norm(), n2 = r2.norm();
-  const double denom = n1 * n2 * (n1 * n2 + r1.dot(r2)) + 0.5 * core * core * (p2 - p1).squaredNorm();
+  const double denom =
+      n1 * n2 * (n1 * n2 + r1.dot(r2)) + 0.5 * core * core * (p2 - p1).squaredNorm();
   if (denom <= 0.0) return Eigen::Vector3d::Zero();
   return r1.cross(r2) * ((n1 + n2) / denom);
 }

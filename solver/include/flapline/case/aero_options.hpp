@@ -106,7 +106,7 @@ struct EnumNames<LineSolve> {
 enum class ProfileDragLaw {
   none,      ///< no profile drag (default)
   constant,  ///< a constant coefficient C_D0 (model.profile_drag.coefficient)
-  blasius    ///< laminar flat plate, both faces: C_D0 = 2·1.328/√Re_c (Blasius 1908), Re_c ≥ 100
+  blasius  ///< laminar flat plate, both faces: C_D0 = 2·1.328/√Re_c (Blasius 1908), Re_c ≥ 100
 };
 template <>
 struct EnumNames<ProfileDragLaw> {
@@ -130,9 +130,9 @@ struct ProfileDrag {
 /// Momentum-theory inflow: the far wake's uniform induced velocity w₀, updated from each cycle's
 /// mean force with under-relaxation and added to the wind of every strip.
 enum class InflowModel {
-  none,         ///< no far-wake inflow (default)
+  none,  ///< no far-wake inflow (default)
   stroke_disc,  ///< w₀ along the stroke-plane normal, disc ΦR²·mean(λ²) for the pair (|β| ≤ 45°)
-  span_disc     ///< forward flight: w₀ opposite to the mean lift, disc πb²/4 (not lifting_line)
+  span_disc  ///< forward flight: w₀ opposite to the mean lift, disc πb²/4 (not lifting_line)
 };
 template <>
 struct EnumNames<InflowModel> {
@@ -150,12 +150,12 @@ struct AeroOptions {
   double suction_recovery = 1.0;
   /// κ_v in [0, 2]: Polhamus vortex-lift factor, allowed only with suction_recovery = 0.
   double vortex_lift = 0.0;
-  RevolvingFit fit;  ///< revolving_fit law only
-  WagnerFit wagner_fit = WagnerFit::rt_jones;     ///< lag models only
-  ReverseFlow reverse_flow = ReverseFlow::attached;  ///< thin-airfoil loads
+  RevolvingFit fit;                                       ///< revolving_fit law only
+  WagnerFit wagner_fit = WagnerFit::rt_jones;             ///< lag models only
+  ReverseFlow reverse_flow = ReverseFlow::attached;       ///< thin-airfoil loads
   SpanCoupling span_coupling = SpanCoupling::both_wings;  ///< lifting_line only
   LineSolve line_solve = LineSolve::structured;           ///< lifting_line only
-  ProfileDrag profile_drag;  ///< thin_airfoil law only
+  ProfileDrag profile_drag;                               ///< thin_airfoil law only
   InflowModel inflow = InflowModel::none;
   double inflow_relaxation = 0.5;  ///< (0, 1]: share of each cycle's correction of w₀ applied
 };

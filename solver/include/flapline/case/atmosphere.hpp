@@ -16,9 +16,9 @@ struct AirSpec {
 
 /// Resolved air properties.
 struct Air {
-  double density = 1.225;                 ///< kg/m³
+  double density = 1.225;                  ///< kg/m³
   double kinematic_viscosity = 1.4607e-5;  ///< m²/s
-  double temperature = 288.15;            ///< K (standard atmosphere at the altitude; informative)
+  double temperature = 288.15;             ///< K (standard atmosphere at the altitude; informative)
 };
 
 /// ISO 2533 troposphere: T = 288.15 - 0.0065 h, p = 101325 (T/288.15)^5.25588,

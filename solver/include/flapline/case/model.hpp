@@ -12,13 +12,13 @@
 
 #include "flapline/case/aero_options.hpp"
 #include "flapline/case/atmosphere.hpp"
+#include "flapline/case/simulation_options.hpp"
+#include "flapline/case/vehicle.hpp"
 #include "flapline/geometry/mass.hpp"
 #include "flapline/geometry/planform.hpp"
 #include "flapline/geometry/strips.hpp"
 #include "flapline/kinematics/gait.hpp"
 #include "flapline/kinematics/wing_motion.hpp"
-#include "flapline/case/simulation_options.hpp"
-#include "flapline/case/vehicle.hpp"
 
 namespace flapline {
 
@@ -43,12 +43,12 @@ struct ModelSpec {
 /// Per-strip arrays of the wing pair (right wing's strips first, then the left's), unscaled by
 /// the span ratio. Derived once, used by the allocation-free inner loops.
 struct PairArrays {
-  Eigen::ArrayXd chord;             ///< m
-  Eigen::ArrayXd radius;            ///< m
-  Eigen::ArrayXd width;             ///< m
-  Eigen::ArrayXd three_quarter_arm; ///< m, ¾-chord point aft of the pitch axis: 0.75c − x₀c
-  Eigen::ArrayXd half_arm;          ///< m, mid-chord aft of the pitch axis: 0.5c − x₀c
-  Eigen::ArrayXd inverse_semichord; ///< 1/b = 2/c (1/m)
+  Eigen::ArrayXd chord;              ///< m
+  Eigen::ArrayXd radius;             ///< m
+  Eigen::ArrayXd width;              ///< m
+  Eigen::ArrayXd three_quarter_arm;  ///< m, ¾-chord point aft of the pitch axis: 0.75c − x₀c
+  Eigen::ArrayXd half_arm;           ///< m, mid-chord aft of the pitch axis: 0.5c − x₀c
+  Eigen::ArrayXd inverse_semichord;  ///< 1/b = 2/c (1/m)
 };
 
 class Model {

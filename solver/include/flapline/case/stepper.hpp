@@ -11,9 +11,9 @@
 
 namespace flapline {
 
-using StateStepper = boost::numeric::odeint::runge_kutta4<
-    Eigen::VectorXd, double, Eigen::VectorXd, double,
-    boost::numeric::odeint::vector_space_algebra>;
+using StateStepper =
+    boost::numeric::odeint::runge_kutta4<Eigen::VectorXd, double, Eigen::VectorXd, double,
+                                         boost::numeric::odeint::vector_space_algebra>;
 
 /// A Workspace's steppers (their buffers are sized on the first step and reused).
 struct StepperSlot {

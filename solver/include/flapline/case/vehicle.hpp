@@ -14,8 +14,9 @@ namespace flapline {
 inline constexpr double kStandardGravity = 9.80665;
 
 struct VehicleSpec {
-  double mass = 0.0;       ///< kg, whole vehicle with its wings, (0, 1000]
-  double ixx = 0.0, iyy = 0.0, izz = 0.0, ixz = 0.0;  ///< kg·m², about the centre of mass, body axes
+  double mass = 0.0;  ///< kg, whole vehicle with its wings, (0, 1000]
+  double ixx = 0.0, iyy = 0.0, izz = 0.0,
+         ixz = 0.0;        ///< kg·m², about the centre of mass, body axes
   double drag_area = 0.0;  ///< C_D·S of the body, m², [0, 100]
   double roll = 0.0;       ///< φ, rad, [−π, π]
   double pitch = 0.0;      ///< θ, rad, [−π/2, π/2]

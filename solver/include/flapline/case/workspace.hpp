@@ -59,12 +59,12 @@ class Workspace {
 
   std::array<WingPose, 2> poses;  ///< right, left (virtual frames)
   // Stage quantities for all 2N strips (update_speeds):
-  Eigen::ArrayXd tangential;       ///< U_t (m/s)
-  Eigen::ArrayXd w_pivot;          ///< normal-wash at the pitch axis (m/s)
-  Eigen::ArrayXd w_three_quarter;  ///< w_¾ (m/s)
-  Eigen::ArrayXd w_half;           ///< w_½ (m/s)
-  Eigen::ArrayXd speed;            ///< U (m/s)
-  Eigen::ArrayXd rate;             ///< U/b, semichords travelled per second (1/s)
+  Eigen::ArrayXd tangential;           ///< U_t (m/s)
+  Eigen::ArrayXd w_pivot;              ///< normal-wash at the pitch axis (m/s)
+  Eigen::ArrayXd w_three_quarter;      ///< w_¾ (m/s)
+  Eigen::ArrayXd w_half;               ///< w_½ (m/s)
+  Eigen::ArrayXd speed;                ///< U (m/s)
+  Eigen::ArrayXd rate;                 ///< U/b, semichords travelled per second (1/s)
   std::vector<SectionState> sections;  ///< full kinematics at output times (update_sections)
   /// Stage cache (stage_speeds): U/b and w_¾ of every strip at each of the 2·steps_per_cycle
   /// stage phases, filled during the first cycle. Empty when the kinematics are not periodic or
@@ -78,7 +78,7 @@ class Workspace {
   Eigen::ArrayXXd sample_arrays;  ///< 2N × (6·samples): tangential, w_pivot, w_¾, w_½, U, U/b
   std::vector<char> sample_filled;
   StripLoads loads;
-  Eigen::VectorXd state;  ///< lag states (sized by attach_aero)
+  Eigen::VectorXd state;                 ///< lag states (sized by attach_aero)
   std::unique_ptr<StepperSlot> stepper;  ///< the steppers with their buffers (case/stepper.hpp)
   /// The aero model's buffers (null for a model that needs none). attach_aero builds them once
   /// per build or reset, handing the previous ones to make_scratch so large caches are reused.

@@ -14,7 +14,8 @@
 namespace flapline {
 
 template <class E>
-struct EnumNames;  // specialise: static constexpr std::array<std::pair<E, std::string_view>, N> items
+struct EnumNames;  // specialise: static constexpr std::array<std::pair<E, std::string_view>, N>
+                   // items
 
 /// Name of an enum value as written in YAML and reports.
 template <class E>

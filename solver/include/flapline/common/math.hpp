@@ -37,8 +37,12 @@ inline Eigen::Matrix3d rotation_z(double a) {
 
 /// Mirror through the body x-z plane, M = diag(1, -1, 1) (DESIGN §2): polar vectors map v -> Mv,
 /// axial vectors (rates, moments) map w -> -Mw.
-inline Eigen::Vector3d mirror(const Eigen::Vector3d& v) { return {v.x(), -v.y(), v.z()}; }
-inline Eigen::Vector3d mirror_axial(const Eigen::Vector3d& w) { return {-w.x(), w.y(), -w.z()}; }
+inline Eigen::Vector3d mirror(const Eigen::Vector3d& v) {
+  return {v.x(), -v.y(), v.z()};
+}
+inline Eigen::Vector3d mirror_axial(const Eigen::Vector3d& w) {
+  return {-w.x(), w.y(), -w.z()};
+}
 
 /// 8-point Gauss-Legendre rule on [-1, 1] (nodes, weights); exact for polynomials of degree 15.
 struct GaussLegendre8 {

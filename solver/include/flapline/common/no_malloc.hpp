@@ -33,8 +33,7 @@ inline void check(bool ok, const char* expr, const char* file, int line) noexcep
 }  // namespace flapline::no_malloc
 
 #ifndef eigen_assert
-#define eigen_assert(x) \
-  ::flapline::no_malloc::check(static_cast<bool>(x), #x, __FILE__, __LINE__)
+#define eigen_assert(x) ::flapline::no_malloc::check(static_cast<bool>(x), #x, __FILE__, __LINE__)
 #endif
 #endif
 
@@ -44,8 +43,12 @@ namespace flapline {
 class NoMallocScope {
  public:
 #ifdef FLAPLINE_CHECK_NO_MALLOC
-  NoMallocScope() noexcept { ++no_malloc::depth(); }
-  ~NoMallocScope() { --no_malloc::depth(); }
+  NoMallocScope() noexcept {
+    ++no_malloc::depth();
+  }
+  ~NoMallocScope() {
+    --no_malloc::depth();
+  }
 #else
   NoMallocScope() noexcept {}  // NOLINT: an empty scope outside the check build
 #endif

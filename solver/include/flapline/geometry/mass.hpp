@@ -31,7 +31,9 @@ struct WingMassSpec {
   std::vector<double> table_span_fraction, table_mass_per_span, table_centre_fraction;
   std::vector<PointMassSpec> points;
   /// True when the wing has any mass.
-  bool any() const noexcept { return total > 0.0 || !table_span_fraction.empty() || !points.empty(); }
+  bool any() const noexcept {
+    return total > 0.0 || !table_span_fraction.empty() || !points.empty();
+  }
 };
 
 /// One wing's mass elements (strips first, then point masses). Per element: mass m at the point
@@ -39,13 +41,13 @@ struct WingMassSpec {
 /// mass m c²/12 about e_s, m(λΔr)²/12 about e_c and their sum about e_n; the stretching inertia
 /// mΔr²/12 of the span-ratio coordinate (0 for point masses).
 struct MassElements {
-  Eigen::ArrayXd mass;            ///< kg
-  Eigen::ArrayXd radius;          ///< m, unscaled radius of the centre of mass
-  Eigen::ArrayXd offset;          ///< ℓ, m ahead of the pitch axis
+  Eigen::ArrayXd mass;    ///< kg
+  Eigen::ArrayXd radius;  ///< m, unscaled radius of the centre of mass
+  Eigen::ArrayXd offset;  ///< ℓ, m ahead of the pitch axis
   Eigen::ArrayXd cos_twist, sin_twist;
-  Eigen::ArrayXd chord_inertia;   ///< m c²/12 (kg·m²)
-  Eigen::ArrayXd stretch_inertia; ///< m Δr²/12 (kg·m², unscaled)
-  double total = 0.0;             ///< kg, one wing
+  Eigen::ArrayXd chord_inertia;    ///< m c²/12 (kg·m²)
+  Eigen::ArrayXd stretch_inertia;  ///< m Δr²/12 (kg·m², unscaled)
+  double total = 0.0;              ///< kg, one wing
   Eigen::Index size() const noexcept { return mass.size(); }
 };
 

@@ -32,11 +32,11 @@ struct EnumNames<PlanformShape> {
 /// Everything that defines a planform. Lengths in m, angles in rad. Key paths in errors: `wing.*`.
 struct PlanformSpec {
   PlanformShape shape = PlanformShape::rectangular;
-  double span = 0.0;         ///< R, m, hinge (root) to tip of one wing; > 0
-  double chord = 0.0;        ///< m, rectangular chord; > 0
-  double root_chord = 0.0;   ///< m, elliptic and tapered root chord; > 0
-  double tip_chord = 0.0;    ///< m, tapered tip chord; >= 0
-  double mean_chord = 0.0;   ///< m, beta: area / span; > 0
+  double span = 0.0;                   ///< R, m, hinge (root) to tip of one wing; > 0
+  double chord = 0.0;                  ///< m, rectangular chord; > 0
+  double root_chord = 0.0;             ///< m, elliptic and tapered root chord; > 0
+  double tip_chord = 0.0;              ///< m, tapered tip chord; >= 0
+  double mean_chord = 0.0;             ///< m, beta: area / span; > 0
   double first_moment_radius = 0.5;    ///< r̂₁ of the beta family, (0, 1)
   double second_moment_radius = 0.55;  ///< r̂₂ of the beta family, (r̂₁, r̂₂,max]
   /// Table rows (shape = table): radial position as a fraction of the span (0 first, 1 last,

@@ -28,7 +28,8 @@ const std::vector<ComparedQuantity>& compared_quantities();
 std::string comparison_csv(const std::vector<ComparedCase>& cases);
 
 /// comparison.md: the same as a Markdown table, with the common settings in a note.
-std::string comparison_markdown(const std::vector<ComparedCase>& cases, const std::string& settings);
+std::string comparison_markdown(const std::vector<ComparedCase>& cases,
+                                const std::string& settings);
 
 /// lift_overlay and power_overlay figures (PNG and SVG); requires gnuplot_available().
 std::map<std::string, std::string> comparison_plots(const std::vector<ComparedCase>& cases);

@@ -9,8 +9,8 @@
 #include <string>
 #include <vector>
 
-#include "flapline/common/errors.hpp"
 #include "flapline/case/model.hpp"
+#include "flapline/common/errors.hpp"
 #include "flapline/studies/design.hpp"
 #include "flapline/studies/runner.hpp"
 

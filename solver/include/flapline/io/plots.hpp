@@ -21,7 +21,7 @@ struct Series {
   /// points and dx, dy the arrows).
   std::string style = "lines";
   std::vector<double> dx, dy;
-  int line_type = 0;      ///< 0: next colour; k > 0: gnuplot line type k
+  int line_type = 0;  ///< 0: next colour; k > 0: gnuplot line type k
   bool dashed = false;
   bool second_axis = false;  ///< plot against the right-hand y axis
 };

@@ -44,7 +44,9 @@ void check_sweep_values(const SweepDefinition& def, const CaseLoader& loader);
 /// `--shard K/N`: this process runs cases K, K + N, K + 2N, …
 struct Shard {
   int index = 0, count = 1;
-  bool owns(std::size_t c) const { return static_cast<int>(c % static_cast<std::size_t>(count)) == index; }
+  bool owns(std::size_t c) const {
+    return static_cast<int>(c % static_cast<std::size_t>(count)) == index;
+  }
   /// Parse "K/N" (0 <= K < N); throws InputError naming --shard.
   static Shard parse(const std::string& text);
 };

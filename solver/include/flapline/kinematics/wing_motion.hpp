@@ -31,7 +31,7 @@ struct WingMotion {
 
 /// Pose and rates of one wing at one instant (virtual frame, body axes).
 struct WingPose {
-  double stroke = 0, deviation = 0, pitch = 0;           ///< rad
+  double stroke = 0, deviation = 0, pitch = 0;  ///< rad
   double span_ratio = 1, span_ratio_rate = 0, span_ratio_accel = 0;
   Eigen::Matrix3d rotation;       ///< R_BW = R_y(β) R_z(-φ) R_x(-θ) R_y(ψ) (no twist)
   Eigen::Vector3d chord_axis;     ///< e_c of an untwisted section, toward the leading edge
@@ -49,7 +49,8 @@ struct WingPose {
   // e_* ∈ {e_s, e_c, e_n} of an untwisted section.
   Eigen::Vector3d rel_cross_s, rel_cross_c, rel_cross_n;  ///< ω_rel × e_*
   Eigen::Vector3d abs_cross_s, abs_cross_c, abs_cross_n;  ///< ω × e_*
-  /// Body-frame rate of ω × (x − h) for a material offset along e_*: ω̇_rel × e_* + ω × (ω_rel × e_*)
+  /// Body-frame rate of ω × (x − h) for a material offset along e_*: ω̇_rel × e_* + ω × (ω_rel ×
+  /// e_*)
   Eigen::Vector3d acc_cross_s, acc_cross_c, acc_cross_n;
   Eigen::Vector3d q_dot_base;  ///< −(Ω × ḣ + ḧ): body-frame rate of q at the hinge
 };
@@ -59,16 +60,16 @@ WingPose wing_pose(const WingMotion& motion, double t);
 
 /// Complete kinematics of one section (virtual frame, body axes).
 struct SectionState {
-  Eigen::Vector3d chord_axis, normal_axis;  ///< e_c, e_n including twist
-  Eigen::Vector3d pivot, quarter, mid;      ///< m, positions of the pitch axis, ¼- and ½-chord
-  Eigen::Vector3d q_quarter, q_mid;         ///< m/s, air velocity relative to those points
-  Eigen::Vector3d v_rel_quarter, v_rel_mid; ///< m/s, point velocity relative to the body
-  double tangential_speed = 0;  ///< U_t = -q·e_c (m/s, > 0 leading edge first)
-  double w_pivot = 0;           ///< normal-wash at the pitch axis (m/s)
-  double w_half = 0;            ///< normal-wash at mid-chord w_½ (m/s)
-  double w_three_quarter = 0;   ///< normal-wash at ¾-chord w_¾ (m/s)
-  double w_half_rate = 0;       ///< d(w_½)/dt, exact (m/s²)
-  double speed = 0;             ///< U = sqrt(U_t² + w_½²) (m/s)
+  Eigen::Vector3d chord_axis, normal_axis;   ///< e_c, e_n including twist
+  Eigen::Vector3d pivot, quarter, mid;       ///< m, positions of the pitch axis, ¼- and ½-chord
+  Eigen::Vector3d q_quarter, q_mid;          ///< m/s, air velocity relative to those points
+  Eigen::Vector3d v_rel_quarter, v_rel_mid;  ///< m/s, point velocity relative to the body
+  double tangential_speed = 0;               ///< U_t = -q·e_c (m/s, > 0 leading edge first)
+  double w_pivot = 0;                        ///< normal-wash at the pitch axis (m/s)
+  double w_half = 0;                         ///< normal-wash at mid-chord w_½ (m/s)
+  double w_three_quarter = 0;                ///< normal-wash at ¾-chord w_¾ (m/s)
+  double w_half_rate = 0;                    ///< d(w_½)/dt, exact (m/s²)
+  double speed = 0;                          ///< U = sqrt(U_t² + w_½²) (m/s)
   /// Angle of attack atan2(w_½, U_t) (rad).
   double alpha() const { return std::atan2(w_half, tangential_speed); }
 };

@@ -49,5 +49,4 @@ RunSummary simulate_with_inflow(const Model& model, Workspace& ws, const RunCont
 /// message; never throws those two. For studies, which record a failure and go on.
 RunSummary run_case(const Model& model, Workspace& ws, const RunControl& control = {});
 
-
 }  // namespace flapline

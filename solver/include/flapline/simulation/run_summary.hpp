@@ -72,12 +72,12 @@ struct WingDriveStats {
 
 /// Statistics of one whole cycle (uniform samples; the end point is the next cycle's start).
 struct CycleStats {
-  Wrench mean;                     ///< both wings
-  std::array<Wrench, 2> wing_mean; ///< right, left
-  double power_air_mean = 0, power_air_peak = 0, power_air_mean_positive = 0;        ///< W
+  Wrench mean;                                                                 ///< both wings
+  std::array<Wrench, 2> wing_mean;                                             ///< right, left
+  double power_air_mean = 0, power_air_peak = 0, power_air_mean_positive = 0;  ///< W
   double power_actuator_mean = 0, power_actuator_peak = 0, power_actuator_mean_positive = 0;
-  double force_rms = 0;  ///< RMS of |F| of the pair over the cycle (N)
-  double induced_drag_mean = 0;  ///< cycle mean of LoadSample::induced_drag (N)
+  double force_rms = 0;                 ///< RMS of |F| of the pair over the cycle (N)
+  double induced_drag_mean = 0;         ///< cycle mean of LoadSample::induced_drag (N)
   std::array<WingDriveStats, 2> drive;  ///< right, left
   /// Both drives' mechanical power: mean, mean of the positive part, max |·| (W).
   double power_mechanical_storage_perfect = 0, power_mechanical_storage_none = 0;
@@ -90,14 +90,14 @@ struct CycleStats {
 /// Derived scalars (DESIGN §5): planform figures, reference speed and the non-dimensional groups,
 /// flow shares. summary.json group `derived`.
 struct DerivedQuantities {
-  double span = 0;             ///< R (m)
-  double area = 0;             ///< one wing S (m²)
-  double mean_chord = 0;       ///< c̄ = S/R (m)
-  double aspect_ratio = 0;     ///< of the pair, 4R²/S_pair
-  double r1 = 0, r2 = 0, r3 = 0;  ///< non-dimensional radii of moments of area
+  double span = 0;                 ///< R (m)
+  double area = 0;                 ///< one wing S (m²)
+  double mean_chord = 0;           ///< c̄ = S/R (m)
+  double aspect_ratio = 0;         ///< of the pair, 4R²/S_pair
+  double r1 = 0, r2 = 0, r3 = 0;   ///< non-dimensional radii of moments of area
   double stroke_peak_to_peak = 0;  ///< Φ, peak-to-peak stroke of the right wing (rad)
-  double airspeed = 0;          ///< |V − wind| (m/s)
-  double reference_speed = 0;   ///< U_ref, RMS of U at r̂₂R over the cycle, both wings (m/s)
+  double airspeed = 0;             ///< |V − wind| (m/s)
+  double reference_speed = 0;      ///< U_ref, RMS of U at r̂₂R over the cycle, both wings (m/s)
   std::optional<double> mean_lift_coefficient;  ///< L̄/(½ρU_ref²S_pair)
   std::optional<double> reynolds_number;        ///< U_ref c̄/ν
   std::optional<double> reduced_frequency;      ///< π f c̄/U_ref
@@ -114,25 +114,25 @@ struct SpanwiseRow {
   bool cycle_mean = false;  ///< true: averaged over the last cycle
   double phase = 0;         ///< cycle fraction of the sample (snapped to the output samples)
   Side side = Side::right;
-  int strip = 0;            ///< 0-based, root to tip
-  double radius = 0;        ///< m from the hinge at that instant (span ratio applied)
-  double span_fraction = 0; ///< r/R of the unfolded wing
-  double chord = 0;         ///< m
+  int strip = 0;             ///< 0-based, root to tip
+  double radius = 0;         ///< m from the hinge at that instant (span ratio applied)
+  double span_fraction = 0;  ///< r/R of the unfolded wing
+  double chord = 0;          ///< m
   Eigen::Vector3d force_per_span = Eigen::Vector3d::Zero();  ///< N/m, body axes
-  double normal_force_per_span = 0;  ///< N/m along e_n
-  double circulation = 0;            ///< m²/s
-  double alpha = 0;                  ///< rad (NaN in cycle-mean rows)
-  double tangential_speed = 0;       ///< U_t (m/s)
-  double induced_wash = 0;           ///< KΓ at the control point (m/s; lifting line)
+  double normal_force_per_span = 0;                          ///< N/m along e_n
+  double circulation = 0;                                    ///< m²/s
+  double alpha = 0;                                          ///< rad (NaN in cycle-mean rows)
+  double tangential_speed = 0;                               ///< U_t (m/s)
+  double induced_wash = 0;  ///< KΓ at the control point (m/s; lifting line)
 };
 
 /// With a vehicle: the net mean wrench and the steady-flight balance (DESIGN §9).
 struct VehicleBalance {
-  double weight = 0;              ///< m·g (N)
+  double weight = 0;                                        ///< m·g (N)
   Eigen::Vector3d gravity_force = Eigen::Vector3d::Zero();  ///< m·g_B (N), body axes
   Eigen::Vector3d body_drag = Eigen::Vector3d::Zero();      ///< −½ρ|V_a|V_a·C_D S (N)
-  Wrench net;                     ///< cycle-mean aerodynamic wrench + weight + body drag
-  double lift_to_weight = 0;      ///< −Z̄_aero / (m g)
+  Wrench net;                 ///< cycle-mean aerodynamic wrench + weight + body drag
+  double lift_to_weight = 0;  ///< −Z̄_aero / (m g)
   /// Steady flight needs net force = m ω×V_B and net moment = ω×(Iω): net minus those.
   Wrench steady_residual;
 };
@@ -142,7 +142,7 @@ struct InflowResult {
   InflowModel kind = InflowModel::none;
   double w0 = 0;  ///< m/s, speed of the uniform induced velocity in the last cycle
   Eigen::Vector3d velocity = Eigen::Vector3d::Zero();  ///< m/s, w₀ as a vector (body axes)
-  double area = 0;    ///< m², the disc
+  double area = 0;                                     ///< m², the disc
   double thrust = 0;  ///< N, T = −F̄·n (stroke disc) or the lift normal to the airspeed (span disc)
   double induced_power = 0;  ///< T·w₀ (W)
   double ideal_power = 0;    ///< Rankine–Froude T^{3/2}/√(2ρA) (W; 0 for T ≤ 0)

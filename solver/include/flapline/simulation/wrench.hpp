@@ -27,23 +27,23 @@ inline constexpr int kJoints = 5;
 
 /// Drive quantities of one wing at one instant (filled by add_drive, simulation/drive.hpp).
 struct WingDriveSample {
-  std::array<double, kJoints> rate{};             ///< q̇ (rad/s, 1/s, m/s)
-  std::array<double, kJoints> torque_aero{};      ///< −Σ(F·∂x/∂q + C·∂ω/∂q̇) (N·m, J, N)
+  std::array<double, kJoints> rate{};         ///< q̇ (rad/s, 1/s, m/s)
+  std::array<double, kJoints> torque_aero{};  ///< −Σ(F·∂x/∂q + C·∂ω/∂q̇) (N·m, J, N)
   std::array<double, kJoints> torque_inertial{};  ///< Σ(m a·∂x/∂q + Ḣ·∂ω/∂q̇) + stretching term
-  std::array<double, kJoints> torque_gravity{};   ///< −Σ m g·∂x/∂q (with a vehicle; else 0)
+  std::array<double, kJoints> torque_gravity{};  ///< −Σ m g·∂x/∂q (with a vehicle; else 0)
   /// What the drive supplies: aerodynamic + inertial, + gravity when the case has a vehicle.
   std::array<double, kJoints> torque{};
-  std::array<double, kJoints> joint_power{};      ///< τ_j q̇_j (W)
-  double power_inertial = 0.0;  ///< Σ τ_inertial q̇ (W)
-  double power = 0.0;           ///< Σ_j power: mechanical power of this wing (W)
-  Wrench inertial;              ///< −Σ m a and −Σ(x × m a + Ḣ) on the body, body axes
+  std::array<double, kJoints> joint_power{};  ///< τ_j q̇_j (W)
+  double power_inertial = 0.0;                ///< Σ τ_inertial q̇ (W)
+  double power = 0.0;                         ///< Σ_j power: mechanical power of this wing (W)
+  Wrench inertial;  ///< −Σ m a and −Σ(x × m a + Ḣ) on the body, body axes
 };
 
 /// Loads of the pair at one instant.
 struct LoadSample {
-  double time = 0.0;            ///< s
-  Wrench total;                 ///< both wings
-  std::array<Wrench, 2> wing;   ///< right, left
+  double time = 0.0;           ///< s
+  Wrench total;                ///< both wings
+  std::array<Wrench, 2> wing;  ///< right, left
   /// Power given to the air, P = −Σ(F·(v − wind) + C·ω_wing) (W).
   double power_air = 0.0;
   /// Actuator power, with velocities and rates relative to the body (W).

@@ -25,9 +25,9 @@ struct DerivativeTable {
   Eigen::MatrixXd value;                ///< D(h/2), quantity unit per parameter unit
   Eigen::MatrixXd error;                ///< Richardson error estimate
   Eigen::Matrix<bool, Eigen::Dynamic, Eigen::Dynamic> flagged;
-  std::vector<double> step;             ///< h per parameter
-  std::vector<std::string> scheme;      ///< "central", "forward" or "backward" per parameter
-  RunSummary base;                      ///< the run at the base point
+  std::vector<double> step;         ///< h per parameter
+  std::vector<std::string> scheme;  ///< "central", "forward" or "backward" per parameter
+  RunSummary base;                  ///< the run at the base point
   int runs = 0;
 };
 

@@ -77,8 +77,8 @@ namespace flapline::studies {
 struct Design {
   DesignKind kind = DesignKind::grid;
   std::vector<KeyValues> keys;
-  int samples = 0;          ///< latin: number of samples N
-  std::uint64_t seed = 1;   ///< latin: seed of the generator
+  int samples = 0;         ///< latin: number of samples N
+  std::uint64_t seed = 1;  ///< latin: seed of the generator
 };
 
 /// The most cases a design may hold.

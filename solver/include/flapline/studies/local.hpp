@@ -21,8 +21,8 @@ struct Parameter {
   enum class Kind { key, velocity, rate };
   std::string name;  ///< key path, or "u", "v", "w", "p", "q", "r"
   Kind kind = Kind::key;
-  int axis = 0;      ///< 0, 1, 2 for velocity and rate components
-  double base = 0;   ///< value at the base point (for velocity and rates: their offset, 0)
+  int axis = 0;     ///< 0, 1, 2 for velocity and rate components
+  double base = 0;  ///< value at the base point (for velocity and rates: their offset, 0)
   double low = -1e300, high = 1e300;  ///< bounds (trim: given; derivatives: the key's range)
 
   /// The six flight-state parameters u, v, w, p, q, r.

@@ -33,7 +33,7 @@ struct LinearModelInput {
 
 struct LinearModel {
   Eigen::Matrix<double, 8, 8> A;
-  Eigen::MatrixXd B;  ///< 8 × k
+  Eigen::MatrixXd B;                                     ///< 8 × k
   static const std::vector<std::string>& state_names();  ///< u v w p q r phi theta
   static const std::vector<std::string>& state_units();
 };
@@ -43,14 +43,14 @@ LinearModel linear_model(const LinearModelInput& in);
 
 /// One mode (an eigenvalue, or a complex-conjugate pair counted once).
 struct Mode {
-  std::string family;      ///< "longitudinal", "lateral" or "coupled"
+  std::string family;         ///< "longitudinal", "lateral" or "coupled"
   double real = 0, imag = 0;  ///< the eigenvalue (1/s); imag >= 0 for a pair
   bool oscillatory = false;
-  double natural_frequency = 0;  ///< |λ| (rad/s)
-  double damping_ratio = 0;      ///< −Re λ/|λ|
-  double period = 0;             ///< 2π/Im λ (s), oscillatory only
-  double time_to_half = 0;       ///< ln 2/(−Re λ) (s) when decaying; 0 otherwise
-  double time_to_double = 0;     ///< ln 2/Re λ (s) when growing; 0 otherwise
+  double natural_frequency = 0;       ///< |λ| (rad/s)
+  double damping_ratio = 0;           ///< −Re λ/|λ|
+  double period = 0;                  ///< 2π/Im λ (s), oscillatory only
+  double time_to_half = 0;            ///< ln 2/(−Re λ) (s) when decaying; 0 otherwise
+  double time_to_double = 0;          ///< ln 2/Re λ (s) when growing; 0 otherwise
   std::vector<std::string> dominant;  ///< states with the largest scaled eigenvector parts
 };
 

@@ -24,8 +24,8 @@ using CaseBuilder = std::function<Model(const CaseSpec&)>;
 using CaseBuilderFactory = std::function<CaseBuilder()>;
 
 struct RunnerOptions {
-  int threads = 0;              ///< worker threads; 0: the cores available to the process
-  bool keep_history = false;    ///< keep each run's history (comparisons plot it)
+  int threads = 0;            ///< worker threads; 0: the cores available to the process
+  bool keep_history = false;  ///< keep each run's history (comparisons plot it)
   /// Checked before every case: true stops the study (cases not started are skipped).
   std::function<bool()> stop;
 };

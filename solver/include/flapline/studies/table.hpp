@@ -23,8 +23,8 @@ std::string table_header(const std::vector<std::string>& varied);
 
 /// The row of case `index` (with its newline): the case's text for each varied key (empty when
 /// the case keeps the base value, `~` when it removes the key), then its results.
-std::string table_row(std::size_t index, const std::vector<std::string>& varied,
-                      const CaseSpec& c, const RunSummary& summary);
+std::string table_row(std::size_t index, const std::vector<std::string>& varied, const CaseSpec& c,
+                      const RunSummary& summary);
 
 /// One CSV field, quoted when it holds a comma, a quote or leading/trailing spaces.
 std::string csv_field(const std::string& text);

@@ -53,17 +53,17 @@ namespace flapline::studies {
 struct TrimResult {
   TrimStatus status = TrimStatus::not_converged;
   std::string message;
-  Eigen::VectorXd values;            ///< free parameters at the end
+  Eigen::VectorXd values;               ///< free parameters at the end
   std::vector<std::string> quantities;  ///< residual names (targets, or the six balance terms)
   Eigen::VectorXd targets, achieved;    ///< per quantity (balance: 0 and the residual itself)
   Eigen::VectorXd scale;                ///< residual scaling per quantity
   double residual = 0;                  ///< RMS of the scaled residuals
   int iterations = 0, runs = 0;
-  Eigen::MatrixXd jacobian;             ///< ∂achieved/∂values at the end (unscaled)
-  double condition = 0;                 ///< of the scaled Jacobian
+  Eigen::MatrixXd jacobian;                ///< ∂achieved/∂values at the end (unscaled)
+  double condition = 0;                    ///< of the scaled Jacobian
   std::vector<std::string> active_bounds;  ///< e.g. "gait.frequency at its upper bound 40"
-  std::vector<double> history;          ///< scaled residual RMS per iteration (0: the start)
-  RunSummary summary;                   ///< the run at the final values
+  std::vector<double> history;             ///< scaled residual RMS per iteration (0: the start)
+  RunSummary summary;                      ///< the run at the final values
 };
 
 /// Solve. `targets` empty means balance. Failing runs end the trim with status `failed`.

@@ -1,9 +1,9 @@
 #pragma once
 /// \file
 /// Classical unsteady thin-airfoil results, evaluated with Boost.Math special functions: the
-/// reference side of the validation cases. Each function names its published source. Kept outside flapline::core on purpose (DESIGN §1).
-/// Conventions (REFERENCES.md): semichord b = c/2, reduced frequency k = ωb/U, reduced time
-/// s = Ut/b, harmonic time factor e^{iωt}.
+/// reference side of the validation cases. Each function names its published source. Kept outside
+/// flapline::core on purpose (DESIGN §1). Conventions (REFERENCES.md): semichord b = c/2, reduced
+/// frequency k = ωb/U, reduced time s = Ut/b, harmonic time factor e^{iωt}.
 
 #include <complex>
 

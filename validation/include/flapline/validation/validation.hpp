@@ -62,8 +62,10 @@ CaseResult run_case(const CaseSpec& spec, const std::vector<std::string>& overri
 std::vector<std::string> known_cases();
 
 /// report.md: a summary per case and one row per check (quantity, flapline, reference, error,
-/// tolerance, pass/fail, source). `figures_note` says where the figures are or why they are missing.
-std::string report_markdown(const std::vector<CaseResult>& results, const std::string& figures_note);
+/// tolerance, pass/fail, source). `figures_note` says where the figures are or why they are
+/// missing.
+std::string report_markdown(const std::vector<CaseResult>& results,
+                            const std::string& figures_note);
 
 /// The built-in location of the case folders (the source tree's validation/cases).
 std::filesystem::path default_cases_dir();
