@@ -160,4 +160,14 @@ TEST_CASE("--set errors and a missing file also exit with status 2") {
   CHECK_FALSE(fs::exists(out));
   CHECK(test::run_cli("run /nonexistent/case.yaml -o \"" + out.string() + "\"", log) == 2);
   CHECK_FALSE(fs::exists(out));
+  // The file itself is named, not a key: "PATH: the configuration file could not be opened".
+  CHECK(log.find("/nonexistent/case.yaml: the configuration file could not be opened") !=
+        std::string::npos);
+  CHECK(log.find("(file)") == std::string::npos);
+  // A directory or a device is refused before anything is read.
+  for (const char* path : {"/dev/zero", "/tmp"}) {
+    CHECK(test::run_cli(std::string("run ") + path + " -o \"" + out.string() + "\"", log) == 2);
+    CHECK(log.find("not a regular file") != std::string::npos);
+  }
+  CHECK_FALSE(fs::exists(out));
 }

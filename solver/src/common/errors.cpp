@@ -26,6 +26,11 @@ void InputError::compose() {
     if (line_ > 0) message_ += ":" + std::to_string(line_);
     message_ += ": ";
   }
+  if (key_ == "(file)" && !file_.empty()) {  // the file itself: its name says it all
+    message_ += allowed_;
+    if (!hint_.empty()) message_ += " (" + hint_ + ")";
+    return;
+  }
   message_ += "key '" + key_ + "'";
   if (!value_.empty()) message_ += " = " + value_;
   message_ += ": " + allowed_;

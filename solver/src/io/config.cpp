@@ -20,6 +20,9 @@ namespace {
 namespace fs = std::filesystem;
 using Keys = std::vector<std::string>;
 
+constexpr std::uintmax_t kMaxInputFileBytes = 16u << 20;  // a configuration file
+constexpr std::uintmax_t kMaxTableFileBytes = 4u << 20;   // a planform table
+
 std::string join(const std::string& a, const std::string& b) {
   return a.empty() ? b : a + "." + b;
 }
@@ -342,6 +345,17 @@ class Reader {
   void read_table_file(const YAML::Node& n, const std::string& path, PlanformSpec& p) const {
     const std::string name = text(n, path);
     const fs::path file = fs::path(src_.base_dir) / name;
+    // Type and size first: a device or a huge file must not be read at all.
+    std::error_code ec;
+    const auto status = fs::status(file, ec);
+    if (fs::exists(status) && !fs::is_regular_file(status))
+      fail(path, &n, "'" + name + "'",
+           std::string("must name a regular CSV file (this is ") +
+               (fs::is_directory(status) ? "a directory" : "a device or a pipe") + ")");
+    if (fs::exists(status) && fs::file_size(file, ec) > kMaxTableFileBytes)
+      fail(path, &n, "'" + name + "'",
+           "the CSV file is larger than 4 MiB (a planform table "
+           "needs a few hundred rows at most)");
     std::ifstream in(file);
     if (!in)
       fail(path, &n, "'" + name + "'",
@@ -667,13 +681,22 @@ class Reader {
 };
 
 std::string read_file(const std::string& path) {
-  std::ifstream in(path, std::ios::binary);
-  if (!in) {
-    InputError e("(file)", "'" + path + "'", "the configuration file could not be opened",
-                 std::filesystem::exists(path) ? "check its permissions" : "no such file");
+  auto refuse = [&](const std::string& why, const std::string& hint) {
+    InputError e("(file)", "'" + path + "'", why, hint);
     e.locate(path, 0);
     throw e;
-  }
+  };
+  std::error_code ec;
+  const auto status = std::filesystem::status(path, ec);
+  if (std::filesystem::exists(status) && !std::filesystem::is_regular_file(status))
+    refuse("the configuration is not a regular file",
+           std::filesystem::is_directory(status) ? "it is a directory" : "a device or a pipe");
+  if (std::filesystem::exists(status) && std::filesystem::file_size(path, ec) > kMaxInputFileBytes)
+    refuse("the configuration file is larger than 16 MiB", "is this the right file?");
+  std::ifstream in(path, std::ios::binary);
+  if (!in)
+    refuse("the configuration file could not be opened",
+           std::filesystem::exists(path) ? "check its permissions" : "no such file");
   std::stringstream ss;
   ss << in.rdbuf();
   return ss.str();
