@@ -126,3 +126,32 @@ TEST_CASE("planform table from CSV, relative to the config's folder") {
   }
   fs::remove_all(dir);
 }
+
+TEST_CASE("bad-input messages say what a first user needs: units typed, counts, rows, forms") {
+  // Each entry: the catalogue file, a phrase its message must hold, the line it must point at.
+  struct Expect {
+    const char* file;
+    const char* phrase;
+    int line;
+  };
+  const Expect cases[] = {
+      {"rates_out_of_range", "within ±36000 (deg/s)", 12},  // the unit the user typed
+      {"rates_out_of_range", "[0, 0, 50000]", 12},
+      {"vector_length", "(2 given)", 12},
+      {"waveform_list", "or a map such as", 9},
+      {"table_row_order", "row 3", 8},  // the row's own line, not the table key's
+      {"second_moment_below_first", "must exceed first_moment_radius", 7},
+      {"mass_point_outside", "must lie on the wing", 8},
+  };
+  for (const Expect& c : cases) {
+    CAPTURE(c.file);
+    const fs::path path = test::source_path(std::string("tests/io/bad_input/") + c.file + ".yaml");
+    try {
+      io::load_model(path.string());
+      FAIL("accepted a bad config");
+    } catch (const InputError& e) {
+      CHECK(std::string(e.what()).find(c.phrase) != std::string::npos);
+      CHECK(e.line() == c.line);
+    }
+  }
+}

@@ -9,13 +9,15 @@
 namespace flapline {
 namespace {
 
-void check_vector(const Eigen::Vector3d& v, const char* key, double limit, const char* unit) {
+/// `shown` converts to the unit the user typed (e.g. rad/s to deg/s) for the message.
+void check_vector(const Eigen::Vector3d& v, const char* key, double limit, const char* unit,
+                  double shown = 1.0) {
   if (!v.allFinite() || v.cwiseAbs().maxCoeff() > limit)
-    throw InputError(
-        key,
-        "[" + format_number(v.x()) + ", " + format_number(v.y()) + ", " + format_number(v.z()) +
-            "]",
-        "each component must be finite and within ±" + format_number(limit) + " (" + unit + ")");
+    throw InputError(key,
+                     "[" + format_number(v.x() * shown) + ", " + format_number(v.y() * shown) +
+                         ", " + format_number(v.z() * shown) + "]",
+                     "each component must be finite and within ±" + format_number(limit * shown) +
+                         " (" + unit + ")");
 }
 
 const GaitSpec& validated(const GaitSpec& g) {
@@ -29,7 +31,7 @@ const GaitSpec& validated(const GaitSpec& g) {
 
 const FlightSpec& validated(const FlightSpec& f) {
   check_vector(f.velocity, "flight.velocity", 1000.0, "m/s");
-  check_vector(f.rates, "flight.rates", 100.0 * 2 * kPi, "rad/s");
+  check_vector(f.rates, "flight.rates", 100.0 * 2 * kPi, "deg/s", 1.0 / kDegree);
   check_vector(f.wind, "flight.wind", 1000.0, "m/s");
   return f;
 }

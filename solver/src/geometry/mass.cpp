@@ -16,11 +16,6 @@ void check_mass(double m, const std::string& key) {
     throw InputError(key, format_number(m), "must lie in [0, 100] kg");
 }
 
-void check_fraction(double f, const std::string& key, const std::string& what) {
-  if (!(f >= 0.0 && f <= 1.0))
-    throw InputError(key, format_number(f), "must lie in [0, 1] (" + what + ")");
-}
-
 /// Linear interpolation in a validated table.
 double interpolate(const std::vector<double>& x, const std::vector<double>& y, double u) {
   std::size_t j = 1;
@@ -50,27 +45,34 @@ void validate(const WingMassSpec& s) {
                        "must cover the whole span: first row at 0, last row at 1");
     for (std::size_t i = 0; i < n; ++i) {
       const std::string row = "row " + std::to_string(i + 1);
+      // Values "row K: v" place the error on that row's own line (io layer).
       if (i > 0 && !(s.table_span_fraction[i] > s.table_span_fraction[i - 1]))
-        throw InputError("wing.mass.per_span", format_number(s.table_span_fraction[i]),
-                         "span fractions must increase (" + row + ")");
+        throw InputError("wing.mass.per_span", row + ": " + format_number(s.table_span_fraction[i]),
+                         "span fractions must increase");
       const double mps = s.table_mass_per_span[i];
       if (!(mps >= 0.0 && mps <= 1e4))
-        throw InputError("wing.mass.per_span", format_number(mps),
-                         "mass per unit span must lie in [0, 10000] kg/m (" + row + ")");
-      check_fraction(s.table_centre_fraction[i], "wing.mass.per_span",
-                     "chordwise centre of mass from the leading edge, " + row);
+        throw InputError("wing.mass.per_span", row + ": " + format_number(mps),
+                         "mass per unit span must lie in [0, 10000] kg/m");
+      const double f = s.table_centre_fraction[i];
+      if (!(f >= 0.0 && f <= 1.0))
+        throw InputError("wing.mass.per_span", row + ": " + format_number(f),
+                         "the chordwise centre of mass must lie in [0, 1] (fraction of the chord "
+                         "from the leading edge)");
     }
   }
   for (std::size_t i = 0; i < s.points.size(); ++i) {
     const PointMassSpec& p = s.points[i];
     const std::string key = "wing.mass.points";
-    const std::string row = "point " + std::to_string(i + 1);
-    check_fraction(p.span_fraction, key,
-                   "span fraction of " + row + ": a point mass must lie on the wing");
-    check_fraction(
-        p.chord_fraction, key,
-        "chord fraction of " + row + " from the leading edge: a point mass must lie on the wing");
-    check_mass(p.mass, key);
+    const std::string row = "row " + std::to_string(i + 1);
+    if (!(p.span_fraction >= 0.0 && p.span_fraction <= 1.0))
+      throw InputError(key, row + ": " + format_number(p.span_fraction),
+                       "the span fraction must lie in [0, 1]: a point mass must lie on the wing");
+    if (!(p.chord_fraction >= 0.0 && p.chord_fraction <= 1.0))
+      throw InputError(key, row + ": " + format_number(p.chord_fraction),
+                       "the chord fraction (from the leading edge) must lie in [0, 1]: a point "
+                       "mass must lie on the wing");
+    if (!(p.mass >= 0.0 && p.mass <= kMaxMass))
+      throw InputError(key, row + ": " + format_number(p.mass), "the mass must lie in [0, 100] kg");
   }
 }
 

@@ -54,7 +54,16 @@ Planform::Planform(PlanformSpec spec) : spec_(std::move(spec)) {
       if (!(r1 > 0.0 && r1 < 1.0))
         throw InputError("wing.first_moment_radius", format_number(r1), "must lie in (0, 1)");
       const double r2max = max_second_moment_radius(r1);
-      if (!(r2 > r1 && r2 <= r2max + 1e-12))
+      if (!(r2 > r1))
+        throw InputError("wing.second_moment_radius", format_number(r2),
+                         "must exceed first_moment_radius (" + format_number(r1) +
+                             "): for any planform r̂₂ ≥ r̂₁, since the mean square of the radius "
+                             "is at least the square of its mean (equal only with all the area "
+                             "at one radius)",
+                         "for r̂₁ = " + format_number(r1) + " choose r̂₂ in (" + format_number(r1) +
+                             ", " + format_number(r2max) + "]")
+            .between_keys();
+      if (!(r2 <= r2max + 1e-12))
         throw InputError("wing.second_moment_radius", format_number(r2),
                          "must lie in (" + format_number(r1) + ", " + format_number(r2max) +
                              "] for first_moment_radius " + format_number(r1),

@@ -87,6 +87,14 @@ struct Source {
     while (!p.empty()) {
       const YAML::Node n = find(p);
       if (n.IsDefined() && n.Mark().line >= 0) {
+        // "row K" in the value of a table's error: point at that row's own line.
+        if (p == e.key() && n.IsSequence() && e.value().rfind("row ", 0) == 0) {
+          const std::size_t k = std::strtoul(e.value().c_str() + 4, nullptr, 10);
+          if (k >= 1 && k <= n.size() && n[k - 1].Mark().line >= 0) {
+            e.locate(file, n[k - 1].Mark().line + 1);
+            return;
+          }
+        }
         e.locate(file, n.Mark().line + 1);
         return;
       }
@@ -222,7 +230,9 @@ class Reader {
 
   Eigen::Vector3d vec3(const YAML::Node& n, const std::string& path, double scale = 1.0) const {
     if (!n.IsSequence() || n.size() != 3)
-      fail(path, &n, describe(n), "must be a list of three numbers [x, y, z]");
+      fail(path, &n, describe(n),
+           "must be a list of three numbers [x, y, z]" +
+               (n.IsSequence() ? " (" + std::to_string(n.size()) + " given)" : std::string()));
     return Eigen::Vector3d(number(n[0], path), number(n[1], path), number(n[2], path)) * scale;
   }
 
@@ -455,6 +465,10 @@ class Reader {
                     "sharpness", "harmonics", "points",    "delay"};
     // Scalar shorthand: a constant.
     auto scalar_case = [&](const YAML::Node& n, const std::string& path) {
+      if (n.IsSequence())
+        fail(path, &n, describe(n),
+             "must be a number (a constant) or a map such as {shape: harmonic, amplitude: 30}",
+             "a list of values over the cycle is written {shape: table, points: [[0, v0], ...]}");
       w.mean = number(n, path) * scale;
       return w;
     };
