@@ -171,3 +171,29 @@ TEST_CASE("--set errors and a missing file also exit with status 2") {
   }
   CHECK_FALSE(fs::exists(out));
 }
+
+TEST_CASE("a setting the chosen model would ignore is refused, also after --set model.kind") {
+  // The revolving-wing fit is a quasi-steady law: switching the model to a lag model on the
+  // command line must not fall back to the thin-airfoil law without a word.
+  const fs::path out = test::fresh_folder("unused_setting");
+  std::string log;
+  CHECK(test::run_cli("run \"" + test::source_path("configs/hover_insect.yaml") +
+                          "\" --set model.coefficient_law=revolving_fit "
+                          "--set model.suction_recovery=1 --set model.kind=wagner -o \"" +
+                          out.string() + "\"",
+                      log) == 2);
+  CHECK(log.find("key 'model.coefficient_law'") != std::string::npos);
+  CHECK(log.find("model.kind wagner") != std::string::npos);
+  CHECK_FALSE(fs::exists(out));
+  // Every demo still runs with every model that can take its options.
+  for (const char* demo : {"hover_insect", "forward_bat", "pitching_wing", "sizing_insect"})
+    for (const char* kind : {"quasi_steady", "wagner", "lifting_line"}) {
+      CAPTURE(demo);
+      CAPTURE(kind);
+      CHECK(test::run_cli("run \"" + test::source_path(std::string("configs/") + demo + ".yaml") +
+                              "\" --no-plot --quiet --set model.kind=" + kind +
+                              " --set wing.strips=6 -o \"" + out.string() + "\"",
+                          log) == 0);
+    }
+  fs::remove_all(out);
+}

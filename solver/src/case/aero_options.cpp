@@ -60,6 +60,62 @@ double ProfileDrag::coefficient_at(double reynolds) const {
   return 0.0;
 }
 
+namespace {
+/// No setting is silently ignored: a model option that the chosen model does not use, set to
+/// anything but its default, is refused with what to do (DESIGN §7).
+void refuse_unused(const AeroOptions& o) {
+  const AeroOptions d;
+  const std::string kind(to_string(o.kind));
+  auto unused = [&](const char* key, const std::string& value, const std::string& used_by,
+                    const std::string& hint) {
+    throw InputError(key, value, "applies to " + used_by + " only, not to model.kind " + kind, hint)
+        .between_keys();
+  };
+  if (o.law == CoefficientLaw::revolving_fit && o.kind != ModelKind::quasi_steady)
+    unused("model.coefficient_law", "revolving_fit", "model.kind quasi_steady",
+           "the lag models use the thin-airfoil law: remove the key, set it to thin_airfoil, or "
+           "choose model.kind quasi_steady");
+  const RevolvingFit& f = o.fit;
+  const RevolvingFit& df = d.fit;
+  const bool fit_changed = f.lift_offset != df.lift_offset ||
+                           f.lift_amplitude != df.lift_amplitude || f.lift_rate != df.lift_rate ||
+                           f.lift_shift != df.lift_shift || f.drag_offset != df.drag_offset ||
+                           f.drag_amplitude != df.drag_amplitude || f.drag_rate != df.drag_rate ||
+                           f.drag_shift != df.drag_shift;
+  if (fit_changed && o.law != CoefficientLaw::revolving_fit)
+    throw InputError("model.fit", "(coefficients)",
+                     "is used by model.coefficient_law revolving_fit only (this run: " +
+                         std::string(to_string(o.law)) + ")",
+                     "remove model.fit or set model.coefficient_law: revolving_fit")
+        .between_keys();
+  if (o.wagner_fit != d.wagner_fit && o.kind == ModelKind::quasi_steady)
+    unused("model.wagner_fit", std::string(to_string(o.wagner_fit)),
+           "the lag models (wagner, lifting_line)",
+           "the quasi-steady model has no lag: remove the key or choose a lag model");
+  if (o.span_coupling != d.span_coupling && o.kind != ModelKind::lifting_line)
+    unused("model.span_coupling", std::string(to_string(o.span_coupling)),
+           "model.kind lifting_line", "remove the key or choose model.kind lifting_line");
+  if (o.line_solve != d.line_solve && o.kind != ModelKind::lifting_line)
+    unused("model.line_solve", std::string(to_string(o.line_solve)), "model.kind lifting_line",
+           "remove the key or choose model.kind lifting_line");
+  if (o.reverse_flow != d.reverse_flow && o.law == CoefficientLaw::revolving_fit)
+    throw InputError("model.reverse_flow", std::string(to_string(o.reverse_flow)),
+                     "applies to the thin_airfoil law only",
+                     "the revolving fit extends itself to reverse flow by flat-plate symmetry")
+        .between_keys();
+  if (o.reverse_flow == ReverseFlow::no_suction && o.suction_recovery == 0.0)
+    throw InputError("model.reverse_flow", "no_suction",
+                     "drops a suction that model.suction_recovery: 0 has already removed",
+                     "remove the key, or recover some suction (model.suction_recovery > 0)")
+        .between_keys();
+  if (o.inflow_relaxation != d.inflow_relaxation && o.inflow == InflowModel::none)
+    throw InputError("model.inflow_relaxation", format_number(o.inflow_relaxation),
+                     "is used with model.inflow only (this run: none)",
+                     "remove the key or choose model.inflow: stroke_disc or span_disc")
+        .between_keys();
+}
+}  // namespace
+
 void validate(const AeroOptions& o) {
   if (!(o.suction_recovery >= 0.0 && o.suction_recovery <= 1.0))
     throw InputError("model.suction_recovery", format_number(o.suction_recovery),
@@ -103,6 +159,7 @@ void validate(const AeroOptions& o) {
                      "must be none with coefficient_law revolving_fit",
                      "the fit's drag coefficient already contains skin friction")
         .between_keys();
+  refuse_unused(o);
 }
 
 }  // namespace flapline
