@@ -87,23 +87,6 @@ LiftingLineScratch& scratch_of(Workspace& ws) {
   return static_cast<LiftingLineScratch&>(*ws.aero_scratch);
 }
 
-bool same_wave(const WaveformSpec& a, const WaveformSpec& b) {
-  return a.shape == b.shape && a.mean == b.mean && a.amplitude == b.amplitude &&
-         a.phase == b.phase && a.sharpness == b.sharpness && a.delay == b.delay &&
-         a.harmonic_amplitudes == b.harmonic_amplitudes && a.harmonic_phases == b.harmonic_phases &&
-         a.table_fraction == b.table_fraction && a.table_value == b.table_value;
-}
-
-/// The two wings take the same angles at every instant (the geometry is mirror-symmetric).
-bool mirror_gait(const Model& model) {
-  const WingMotion& r = model.motion(Side::right);
-  const WingMotion& l = model.motion(Side::left);
-  return same_wave(r.stroke.spec(), l.stroke.spec()) &&
-         same_wave(r.deviation.spec(), l.deviation.spec()) &&
-         same_wave(r.pitch.spec(), l.pitch.spec()) &&
-         same_wave(r.span_ratio.spec(), l.span_ratio.spec());
-}
-
 /// Own-wing block of `side` into K (reused while the wing keeps its span ratio).
 void assemble_own(const Model& model, LiftingLineScratch& s, std::size_t side) {
   const Eigen::Index n = model.strips_per_wing();
@@ -374,7 +357,7 @@ std::unique_ptr<AeroScratch> LiftingLineModel::make_scratch(
       if (wave->maximum() != wave->minimum()) moving = true;
   }
   s->direct = model.aero_options().line_solve == LineSolve::direct;
-  s->mirror = !s->direct && mirror_gait(model);
+  s->mirror = !s->direct && model.mirror_gait();
   const Eigen::Index m = s->mirror ? n : n2;  // size of the systems factorised
   s->S.setZero(m, m);
   s->S2.setZero(m, m);

@@ -110,6 +110,12 @@ Model::Model(ModelSpec spec)
   for (const WingMotion& m : motion_)
     for (const Waveform* w : {&m.stroke, &m.deviation, &m.pitch, &m.span_ratio, &m.plunge})
       if (w->spec().shape == WaveShape::step) periodic_ = false;
+  const WingMotion& r = motion_[0];
+  const WingMotion& l = motion_[1];
+  mirror_gait_ = same_waveform(r.stroke.spec(), l.stroke.spec()) &&
+                 same_waveform(r.deviation.spec(), l.deviation.spec()) &&
+                 same_waveform(r.pitch.spec(), l.pitch.spec()) &&
+                 same_waveform(r.span_ratio.spec(), l.span_ratio.spec());
   check_inflow();
   if (!periodic_ && spec_.simulation.start == StartMode::periodic &&
       spec_.aero.kind != ModelKind::quasi_steady)

@@ -148,6 +148,13 @@ std::map<std::string, std::string> run_plots(const RunSummary& s, const Model& m
               "stroke plane)",
               {}};
   const char* side_name[2] = {"right", "left"};
+  // The span-ratio axis only when a wing folds (a constant 1 would read like an angle).
+  bool folds = false;
+  for (int w = 0; w < 2; ++w) {
+    const Waveform& lam = model.motion(static_cast<Side>(w)).span_ratio;
+    folds = folds || lam.maximum() - lam.minimum() > 1e-12;
+  }
+  if (!folds) angles.y2label.clear();
   for (std::size_t w = 0; w < 2; ++w) {
     const bool d = w == 1;
     angles.series.push_back(history_series(
@@ -159,35 +166,49 @@ std::map<std::string, std::string> run_plots(const RunSummary& s, const Model& m
     angles.series.push_back(history_series(
         rows, std::string(side_name[w]) + " pitch",
         [w](const HistoryRow& r) { return r.angles[w].pitch / kDegree; }, 3, d));
-    Series lam = history_series(
-        rows, std::string(side_name[w]) + " span ratio",
-        [w](const HistoryRow& r) { return r.angles[w].span_ratio; }, 4, d);
-    lam.second_axis = true;
-    angles.series.push_back(lam);
+    if (folds) {
+      Series lam = history_series(
+          rows, std::string(side_name[w]) + " span ratio",
+          [w](const HistoryRow& r) { return r.angles[w].span_ratio; }, 4, d);
+      lam.second_axis = true;
+      angles.series.push_back(lam);
+    }
   }
   angles.key = "outside right top";
   merge(files, render(angles, "gait"));
 
-  // Spanwise lift per unit span of the right wing at the requested phases and as a cycle mean.
-  Plot span{"Spanwise loading of the right wing\n" + s.title,
+  // Spanwise lift per unit span at the requested phases and as a cycle mean: the right wing, and
+  // the left one too (dashed) when the gait differs between the wings.
+  const bool both = !model.mirror_gait();
+  Plot span{std::string(both ? "Spanwise loading of both wings\n"
+                             : "Spanwise loading of the right wing\n") +
+                s.title,
             "r / R (span fraction)",
             "lift per unit span (N/m)",
             "",
-            "lift = -Z per unit span; solid: phases, dashed: cycle mean",
+            both
+                ? "lift = -Z per unit span; solid: right wing, dashed: left wing; black: cycle mean"
+                : "lift = -Z per unit span; black: cycle mean",
             {}};
   std::map<std::string, Series> by_phase;
+  std::map<double, int> phase_type;
+  for (const SpanwiseRow& r : s.spanwise)
+    if (!r.cycle_mean) phase_type.emplace(r.phase, static_cast<int>(phase_type.size()) + 1);
   for (const SpanwiseRow& r : s.spanwise) {
-    if (r.side != Side::right) continue;
-    char key[32];
-    std::snprintf(key, sizeof key, r.cycle_mean ? "cycle mean" : "phase %.2f", r.phase);
+    if (r.side != Side::right && !both) continue;
+    char key[48];
+    std::snprintf(key, sizeof key, r.cycle_mean ? "%scycle mean" : "%sphase %.2f",
+                  both ? (r.side == Side::right ? "right, " : "left, ") : "", r.phase);
     Series& ser = by_phase[key];
     ser.title = key;
-    ser.style = "linespoints";
-    ser.dashed = r.cycle_mean;
+    ser.style = r.cycle_mean ? "lines" : "linespoints";
+    ser.dashed = r.side == Side::left;
+    ser.line_type = r.cycle_mean ? 8 : phase_type[r.phase];  // gnuplot type 8: black
     ser.x.push_back(r.span_fraction);
     ser.y.push_back(-r.force_per_span.z());
   }
   for (auto& [k, ser] : by_phase) span.series.push_back(ser);
+  span.key = "outside right top vertical";
   merge(files, render(span, "spanwise"));
 
   // Planform seen from above: leading and trailing edges, strip edges, pitch axis.
@@ -236,44 +257,50 @@ std::map<std::string, std::string> run_plots(const RunSummary& s, const Model& m
   const double r2 = pf.radius_moment(2) * pf.span();
   const double c = pf.chord(r2), le2 = pf.leading_edge(r2), tw = pf.twist(r2);
   Plot stroke{"Stroke diagram of the section at r2 R = " + std::to_string(r2 * 1000).substr(0, 6) +
-                  " mm (right wing)",
+                  (both ? " mm (both wings)" : " mm (right wing)"),
               "along the stroke path (m, + forward stroke)",
               "out of the stroke plane (m, + up)",
               "",
-              "chord drawn every 1/24 cycle, dot = leading edge; stroke-plane coordinates",
+              both ? "chord drawn every 1/24 cycle, dot = leading edge; stroke-plane coordinates; "
+                     "the left wing's path dashed"
+                   : "chord drawn every 1/24 cycle, dot = leading edge; stroke-plane coordinates",
               {}};
   stroke.equal_axes = true;
-  Series forward = named("chord, forward stroke", "vectors");
-  Series backward = named("chord, backward stroke", "vectors");
-  Series edges_le = named("leading edge", "points"), path = named("pitch-axis path", "lines");
-  const WingMotion& m = model.motion(Side::right);
-  for (int j = 0; j <= 240; ++j) {
-    const double t = (s.cycles - 1 + j / 240.0) / s.frequency;
-    const double lam = m.span_ratio.at(t, m.frequency).value;
-    path.x.push_back(lam * r2 * m.stroke.at(t, m.frequency).value);
-    path.y.push_back(lam * r2 * m.deviation.at(t, m.frequency).value);
+  for (int w = 0; w < (both ? 2 : 1); ++w) {
+    const std::string who = both ? std::string(w == 0 ? "right " : "left ") : std::string();
+    Series forward = named(who + "chord, forward stroke", "vectors");
+    Series backward = named(who + "chord, backward stroke", "vectors");
+    Series edges_le = named(who + "leading edge", "points");
+    Series path = named(who + "pitch-axis path", "lines");
+    const WingMotion& m = model.motion(static_cast<Side>(w));
+    for (int j = 0; j <= 240; ++j) {
+      const double t = (s.cycles - 1 + j / 240.0) / s.frequency;
+      const double lam = m.span_ratio.at(t, m.frequency).value;
+      path.x.push_back(lam * r2 * m.stroke.at(t, m.frequency).value);
+      path.y.push_back(lam * r2 * m.deviation.at(t, m.frequency).value);
+    }
+    for (int j = 0; j < 24; ++j) {
+      const double t = (s.cycles - 1 + j / 24.0) / s.frequency;
+      const double lam = m.span_ratio.at(t, m.frequency).value;
+      const double u = lam * r2 * m.stroke.at(t, m.frequency).value;
+      const double v = lam * r2 * m.deviation.at(t, m.frequency).value;
+      const double psi = m.pitch.at(t, m.frequency).value + tw;
+      const double cu = std::cos(psi), cv = std::sin(psi);
+      Series& chords = m.stroke.at(t, m.frequency).rate >= 0.0 ? forward : backward;
+      chords.x.push_back(u - (c - le2) * cu);
+      chords.y.push_back(v - (c - le2) * cv);
+      chords.dx.push_back(c * cu);
+      chords.dy.push_back(c * cv);
+      edges_le.x.push_back(u + le2 * cu);
+      edges_le.y.push_back(v + le2 * cv);
+    }
+    path.line_type = w == 0 ? 3 : 7;
+    path.dashed = true;
+    forward.line_type = w == 0 ? 1 : 5;
+    backward.line_type = w == 0 ? 2 : 6;
+    edges_le.line_type = w == 0 ? 4 : 8;
+    for (Series* x : {&path, &forward, &backward, &edges_le}) stroke.series.push_back(*x);
   }
-  for (int j = 0; j < 24; ++j) {
-    const double t = (s.cycles - 1 + j / 24.0) / s.frequency;
-    const double lam = m.span_ratio.at(t, m.frequency).value;
-    const double u = lam * r2 * m.stroke.at(t, m.frequency).value;
-    const double v = lam * r2 * m.deviation.at(t, m.frequency).value;
-    const double psi = m.pitch.at(t, m.frequency).value + tw;
-    const double cu = std::cos(psi), cv = std::sin(psi);
-    Series& chords = m.stroke.at(t, m.frequency).rate >= 0.0 ? forward : backward;
-    chords.x.push_back(u - (c - le2) * cu);
-    chords.y.push_back(v - (c - le2) * cv);
-    chords.dx.push_back(c * cu);
-    chords.dy.push_back(c * cv);
-    edges_le.x.push_back(u + le2 * cu);
-    edges_le.y.push_back(v + le2 * cv);
-  }
-  path.line_type = 3;
-  path.dashed = true;
-  forward.line_type = 1;
-  backward.line_type = 2;
-  edges_le.line_type = 4;
-  stroke.series = {path, forward, backward, edges_le};
   stroke.key = "outside bottom center horizontal";
   merge(files, render(stroke, "stroke"));
   return files;

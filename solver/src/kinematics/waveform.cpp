@@ -10,6 +10,14 @@
 #include "flapline/common/math.hpp"
 
 namespace flapline {
+
+bool same_waveform(const WaveformSpec& a, const WaveformSpec& b) {
+  return a.shape == b.shape && a.mean == b.mean && a.amplitude == b.amplitude &&
+         a.phase == b.phase && a.sharpness == b.sharpness && a.delay == b.delay &&
+         a.harmonic_amplitudes == b.harmonic_amplitudes && a.harmonic_phases == b.harmonic_phases &&
+         a.table_fraction == b.table_fraction && a.table_value == b.table_value;
+}
+
 namespace {
 constexpr double kTwoPi = 2.0 * kPi;
 

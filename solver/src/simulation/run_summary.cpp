@@ -120,10 +120,13 @@ std::string RunSummary::brief_report() const {
   if (inflow)
     out += line("  inflow: w0 %.5g m/s (%s), induced power %.5g W", inflow->w0,
                 std::string(to_string(inflow->kind)).c_str(), inflow->induced_power);
-  out +=
-      line("  mean lift coefficient %s, Re %s, reduced frequency %s, advance ratio %s",
-           opt(derived.mean_lift_coefficient).c_str(), opt(derived.reynolds_number, "%.0f").c_str(),
-           opt(derived.reduced_frequency).c_str(), opt(derived.advance_ratio).c_str());
+  out += line("  mean lift coefficient %s, Re %s, reduced frequency %s, advance ratio %s%s",
+              opt(derived.mean_lift_coefficient).c_str(),
+              opt(derived.reynolds_number, "%.0f").c_str(), opt(derived.reduced_frequency).c_str(),
+              opt(derived.advance_ratio).c_str(), derived.mirror_gait ? "" : " (right wing)");
+  if (!derived.mirror_gait)
+    out += line("  drive power per wing (perfect storage): right %.5g W, left %.5g W",
+                averages.drive[0].power_storage_perfect, averages.drive[1].power_storage_perfect);
   out += line("  reverse flow: %.1f %% of strip samples", 100.0 * derived.reverse_flow_fraction);
   return out + footer(*this);
 }
@@ -139,8 +142,14 @@ std::string RunSummary::full_report() const {
               f.span, f.area, f.mean_chord, f.aspect_ratio);
   out += line("      r1 %.4f, r2 %.4f, r3 %.4f (non-dimensional radii of moments of area)", f.r1,
               f.r2, f.r3);
-  out += line("gait: stroke amplitude (peak to peak) %.4g deg; airspeed %.4g m/s",
-              f.stroke_peak_to_peak / kDegree, f.airspeed);
+  if (f.mirror_gait)
+    out += line("gait: stroke amplitude (peak to peak) %.4g deg; airspeed %.4g m/s",
+                f.stroke_peak_to_peak / kDegree, f.airspeed);
+  else
+    out += line(
+        "gait (differs between the wings): stroke amplitude (peak to peak) %.4g deg right, "
+        "%.4g deg left; airspeed %.4g m/s; the advance ratio below uses the right wing's",
+        f.stroke_peak_to_peak / kDegree, f.left_stroke_peak_to_peak / kDegree, f.airspeed);
   out += line("reference speed U_ref %.5g m/s (RMS at r2 R)", f.reference_speed);
   out += "cycle means, body axes (x forward, y right, z down; lift = -Z, thrust = X):\n";
   out += " pair:\n" + wrench_lines(*this, averages.mean, "   ");

@@ -48,6 +48,9 @@ void derive_quantities(const Model& model, Workspace& ws, int last_cycle, RunSum
   d.r3 = planform.radius_moment(3);
   const Waveform& stroke = model.motion(Side::right).stroke;
   d.stroke_peak_to_peak = stroke.maximum() - stroke.minimum();
+  const Waveform& left_stroke = model.motion(Side::left).stroke;
+  d.left_stroke_peak_to_peak = left_stroke.maximum() - left_stroke.minimum();
+  d.mirror_gait = model.mirror_gait();
   d.airspeed = (model.spec().flight.velocity - model.spec().flight.wind).norm();
   // Reference section at r̂₂R (Ellington 1984) for U_ref.
   const double r_ref = d.r2 * d.span;

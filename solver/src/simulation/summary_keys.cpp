@@ -204,6 +204,8 @@ std::vector<SummaryKey> make_keys() {
       [](const RunSummary& s) -> Value { return s.derived.advance_ratio; });
   add("derived.stroke_peak_to_peak_deg",
       [](const RunSummary& s) -> Value { return s.derived.stroke_peak_to_peak / kDegree; });
+  add("derived.left_stroke_peak_to_peak_deg",
+      [](const RunSummary& s) -> Value { return s.derived.left_stroke_peak_to_peak / kDegree; });
   add("derived.airspeed_m_s", [](const RunSummary& s) -> Value { return s.derived.airspeed; });
   add("derived.force_rms_N", [](const RunSummary& s) -> Value { return s.averages.force_rms; });
   add("derived.induced_drag_N",

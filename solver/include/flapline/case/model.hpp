@@ -78,6 +78,9 @@ class Model {
   double period() const noexcept { return 1.0 / spec_.gait.frequency; }
   /// True when every waveform repeats each cycle (no step), so kinematics depend on phase only.
   bool periodic_kinematics() const noexcept { return periodic_; }
+  /// True when both wings take the same angles at every instant (stroke, deviation, pitch and
+  /// span ratio alike): the pair is then mirror-symmetric about the body's x-z plane.
+  bool mirror_gait() const noexcept { return mirror_gait_; }
 
  private:
   ModelSpec spec_;
@@ -88,6 +91,7 @@ class Model {
   Air air_;
   std::array<WingMotion, 2> motion_;
   bool periodic_ = true;
+  bool mirror_gait_ = true;
   void check_inflow() const;
 };
 

@@ -62,7 +62,7 @@ struct SimulationOptions {
   double tolerance = 1e-5;
   StartMode start = StartMode::rest;
   /// Cycle fractions [0, 1) at which the spanwise loading is reported (snapped to samples).
-  std::vector<double> spanwise_phases{0.0, 0.25, 0.5, 0.75};
+  std::vector<double> spanwise_phases{0.1, 0.25, 0.4, 0.65};
   HistoryKeep history = HistoryKeep::all;
   Integrator integrator = Integrator::exponential;
   /// MiB that the per-phase matrices of all lifting-line runs in this process may hold together

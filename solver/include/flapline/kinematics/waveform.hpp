@@ -46,6 +46,9 @@ struct WaveformSpec {
   std::vector<double> table_value;          ///< table: values; first and last equal (periodic)
 };
 
+/// True when two specs describe the same waveform field by field.
+bool same_waveform(const WaveformSpec& a, const WaveformSpec& b);
+
 /// Value and time derivatives of a waveform at one instant.
 struct WaveSample {
   double value = 0.0;  ///< x

@@ -90,14 +90,16 @@ struct CycleStats {
 /// Derived scalars (DESIGN §5): planform figures, reference speed and the non-dimensional groups,
 /// flow shares. summary.json group `derived`.
 struct DerivedQuantities {
-  double span = 0;                 ///< R (m)
-  double area = 0;                 ///< one wing S (m²)
-  double mean_chord = 0;           ///< c̄ = S/R (m)
-  double aspect_ratio = 0;         ///< of the pair, 4R²/S_pair
-  double r1 = 0, r2 = 0, r3 = 0;   ///< non-dimensional radii of moments of area
-  double stroke_peak_to_peak = 0;  ///< Φ, peak-to-peak stroke of the right wing (rad)
-  double airspeed = 0;             ///< |V − wind| (m/s)
-  double reference_speed = 0;      ///< U_ref, RMS of U at r̂₂R over the cycle, both wings (m/s)
+  double span = 0;                      ///< R (m)
+  double area = 0;                      ///< one wing S (m²)
+  double mean_chord = 0;                ///< c̄ = S/R (m)
+  double aspect_ratio = 0;              ///< of the pair, 4R²/S_pair
+  double r1 = 0, r2 = 0, r3 = 0;        ///< non-dimensional radii of moments of area
+  double stroke_peak_to_peak = 0;       ///< Φ, peak-to-peak stroke of the right wing (rad)
+  double left_stroke_peak_to_peak = 0;  ///< the left wing's (rad)
+  bool mirror_gait = true;              ///< both wings take the same angles (Model::mirror_gait)
+  double airspeed = 0;                  ///< |V − wind| (m/s)
+  double reference_speed = 0;  ///< U_ref, RMS of U at r̂₂R over the cycle, both wings (m/s)
   std::optional<double> mean_lift_coefficient;  ///< L̄/(½ρU_ref²S_pair)
   std::optional<double> reynolds_number;        ///< U_ref c̄/ν
   std::optional<double> reduced_frequency;      ///< π f c̄/U_ref
