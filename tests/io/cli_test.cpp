@@ -190,10 +190,13 @@ TEST_CASE("a setting the chosen model would ignore is refused, also after --set 
     for (const char* kind : {"quasi_steady", "wagner", "lifting_line"}) {
       CAPTURE(demo);
       CAPTURE(kind);
-      CHECK(test::run_cli("run \"" + test::source_path(std::string("configs/") + demo + ".yaml") +
-                              "\" --no-plot --quiet --set model.kind=" + kind +
-                              " --set wing.strips=6 -o \"" + out.string() + "\"",
-                          log) == 0);
+      CHECK(
+          test::run_cli("run \"" + test::source_path(std::string("configs/") + demo + ".yaml") +
+                            "\" --no-plot --quiet --set model.kind=" + kind +
+                            " --set wing.strips=6 --set simulation.steps_per_cycle=40 --set "
+                            "simulation.samples_per_cycle=20 --set simulation.max_cycles=2 -o \"" +
+                            out.string() + "\"",
+                        log) == 0);
     }
   fs::remove_all(out);
 }
