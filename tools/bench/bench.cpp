@@ -152,7 +152,7 @@ void lifting_line_cached_derivative(benchmark::State& state) {
   }
 }
 
-// Sweeps (issue: design studies): the hover demo config, every case built from YAML with its
+// Sweeps (design studies): the hover demo config, every case built from YAML with its
 // override and run to convergence (quasi_steady) or for a fixed-tolerance run from rest (wagner),
 // as `flapline sweep` does; argument = threads.
 void sweep(benchmark::State& state, const char* model, int cases) {

@@ -84,6 +84,7 @@ CaseSpec read_case(const fs::path& dir) {
     }
     if (!(s.tolerance > 0)) bad(file, n, "checks.tolerance", "a number > 0");
     s.why = text(file, n, "why");
+    if (n["law"].IsDefined()) s.law = text(file, n, "law");
     c.checks.push_back(s);
   }
   if (const YAML::Node ref = root["reference"]; ref.IsDefined()) {
@@ -128,6 +129,16 @@ std::vector<CaseSpec> load_cases(const fs::path& dir, const std::string& only) {
   return out;
 }
 
+/// A table cell: `|` would end the cell early in Markdown.
+std::string cell(const std::string& text) {
+  std::string out;
+  for (char ch : text) {
+    if (ch == '|') out += '\\';
+    out += ch;
+  }
+  return out;
+}
+
 std::string report_markdown(const std::vector<CaseResult>& results,
                             const std::string& figures_note) {
   int passed = 0, total = 0;
@@ -138,15 +149,17 @@ std::string report_markdown(const std::vector<CaseResult>& results,
     }
   std::string md = "# flapline validation report\n\n";
   md += std::to_string(passed) + " of " + std::to_string(total) + " checks pass in " +
-        std::to_string(results.size()) + " cases. " + figures_note + "\n\n";
+        std::to_string(results.size()) + " cases. " + figures_note +
+        " The published values and how far each was checked: validation/REFERENCES.md (shipped "
+        "with flapline; installed under share/flapline/validation).\n\n";
   md += "| case | compared | checks passed | source |\n|---|---|---|---|\n";
   for (const auto& r : results) {
     const long ok =
         std::count_if(r.checks.begin(), r.checks.end(), [](const Check& c) { return c.pass; });
-    md += "| " + r.spec.name + " | " + r.spec.compared + " | " +
+    md += "| " + cell(r.spec.name) + " | " + cell(r.spec.compared) + " | " +
           (r.failure.empty() ? std::to_string(ok) + " / " + std::to_string(r.checks.size())
-                             : "could not run: " + r.failure) +
-          " | " + r.spec.source + " |\n";
+                             : "could not run: " + cell(r.failure)) +
+          " | " + cell(r.spec.source) + " |\n";
   }
   for (const auto& r : results) {
     md += "\n## " + r.spec.name + ": " + r.spec.title + "\n\n";
@@ -157,17 +170,15 @@ std::string report_markdown(const std::vector<CaseResult>& results,
       md += "- `" + s.id + "`: " + number(s.tolerance) + " (" + s.measure + ") — " + s.why + "\n";
     if (!r.failure.empty()) md += "\n**Could not run:** " + r.failure + "\n";
     md +=
-        "\n| quantity | flapline | reference | error | tolerance | result | source |\n"
-        "|---|---|---|---|---|---|---|\n";
-    for (const auto& c : r.checks)
-      md += "| " + c.quantity + " | " + number(c.value) + " | " + number(c.reference) + " | " +
-            number(c.error) +
-            (c.measure == "relative"  ? ""
-             : c.measure == "degrees" ? " deg"
-                                      : "") +
-            " | " + number(c.tolerance) + " | " + (c.pass ? "pass" : "**FAIL**") + " | " +
-            (r.spec.table_source.empty() || c.id != "table" ? r.spec.source : r.spec.table_source) +
-            " |\n";
+        "\n| quantity, against | flapline | reference | error | tolerance | result |\n"
+        "|---|---|---|---|---|---|\n";
+    for (const auto& c : r.checks) {
+      const std::string law = c.law.empty() ? r.spec.check(c.id).law : c.law;
+      md += "| " + cell(c.quantity + (law.empty() ? std::string() : ", " + law)) + " | " +
+            number(c.value) + " | " + number(c.reference) + " | " + number(c.error) +
+            (c.measure == "degrees" ? " deg" : "") + " | " + number(c.tolerance) + " | " +
+            (c.pass ? "pass" : "**FAIL**") + " |\n";
+    }
     for (std::size_t f = 0; f < r.figures.size(); ++f)
       md += "\n![" + r.figures[f].title + "](" + r.spec.name +
             (f == 0 ? std::string() : "_" + std::to_string(f + 1)) + ".png)\n";

@@ -19,6 +19,7 @@ struct CheckSpec {
   double tolerance = 0;
   std::string measure;  ///< "relative", "absolute" or "degrees"
   std::string why;      ///< why the tolerance is what it is
+  std::string law;      ///< the law or result checked against, named in each report row
 };
 
 /// A case folder.
@@ -35,6 +36,7 @@ struct CaseSpec {
 /// One row of the report.
 struct Check {
   std::string id, quantity;
+  std::string law;  ///< filled from the CheckSpec when the report is written
   double value = 0, reference = 0, error = 0, tolerance = 0;
   std::string measure;
   bool pass = false;
