@@ -85,7 +85,7 @@ py::tuple run(const std::string& text, const std::string& name, const std::strin
       const io::CaseLoader loader(text, name, base_dir, sets);
       const Model model = loader.build({});
       s = simulate(model);
-      summary = io::summary_json(s);
+      summary = io::summary_json(s, {}, &model, sets);
     }
     py::dict history;
     const std::vector<std::vector<double>> t = io::history_table(s);

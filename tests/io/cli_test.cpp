@@ -24,7 +24,8 @@ TEST_CASE("flapline run writes history.csv, summary.json and spanwise.csv for ev
                       log);
     CHECK(code == 0);
     CHECK(log.find("Cautions:") != std::string::npos);  // the run summary carries the cautions
-    for (const char* f : {"history.csv", "summary.json", "spanwise.csv", "drive.csv"})
+    for (const char* f :
+         {"history.csv", "summary.json", "spanwise.csv", "drive.csv", "resolved.yaml"})
       CHECK(fs::exists(out / f));
     std::ifstream js(out / "summary.json");
     const nlohmann::json j = nlohmann::json::parse(js);
@@ -33,6 +34,8 @@ TEST_CASE("flapline run writes history.csv, summary.json and spanwise.csv for ev
     CHECK(j["derived"].contains("reverse_flow_fraction"));
     CHECK(j["derived"].contains("stroke_peak_to_peak_deg"));
     CHECK(j["version"] == kVersion);
+    CHECK(j["overrides"].is_array());
+    CHECK(j["configuration"]["simulation"].contains("steps_per_cycle"));
     CHECK(j["drive"]["pair"]["power_storage_none_W"].get<double>() >=
           j["drive"]["pair"]["power_storage_perfect_W"].get<double>());
     CHECK(j.contains("inflow") == (std::string(demo).find("inflow") != std::string::npos ||

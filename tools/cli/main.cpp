@@ -21,6 +21,7 @@
 #include "flapline/io/comparison.hpp"
 #include "flapline/io/config.hpp"
 #include "flapline/io/plots.hpp"
+#include "flapline/io/resolved.hpp"
 #include "flapline/io/run_plots.hpp"
 #include "flapline/io/writers.hpp"
 #include "flapline/simulation/integrate.hpp"
@@ -69,7 +70,8 @@ int run_command(const RunArgs& a) {
       a.out.empty() ? fs::path("results") / fs::path(a.config).stem() : fs::path(a.out);
   io::OutputFolder folder(dir);
   folder.add("history.csv", io::history_csv(summary));
-  folder.add("summary.json", io::summary_json(summary, a.config));
+  folder.add("summary.json", io::summary_json(summary, a.config, &model, a.sets));
+  folder.add("resolved.yaml", io::resolved_yaml(model));
   folder.add("spanwise.csv", io::spanwise_csv(summary));
   folder.add("drive.csv", io::drive_csv(summary));
   std::string plot_note;
@@ -88,7 +90,7 @@ int run_command(const RunArgs& a) {
   if (!a.quiet) {
     std::cout << (a.full ? summary.full_report() : summary.brief_report());
     std::cout << "results: " << dir.string()
-              << "/ (history.csv, summary.json, spanwise.csv, drive.csv"
+              << "/ (history.csv, summary.json, spanwise.csv, drive.csv, resolved.yaml"
               << (a.state_space_time ? ", state_space.json" : "")
               << (a.plot && plot_note.empty() ? ", figures *.png and *.svg" : "") << ")\n";
     if (!plot_note.empty()) std::cout << plot_note << "\n";

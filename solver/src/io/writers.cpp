@@ -9,6 +9,7 @@
 #include <stdexcept>
 
 #include "flapline/common/math.hpp"
+#include "flapline/io/resolved.hpp"
 #include "flapline/simulation/summary_keys.hpp"
 #include "flapline/version.hpp"
 
@@ -276,12 +277,17 @@ std::string spanwise_csv(const RunSummary& s) {
   return out;
 }
 
-std::string summary_json(const RunSummary& s, const std::string& config_path) {
+std::string summary_json(const RunSummary& s, const std::string& config_path, const Model* model,
+                         const std::vector<std::string>& overrides) {
   using nlohmann::json;
   json j;
   j["version"] = kVersion;
   j["title"] = s.title;
   if (!config_path.empty()) j["config"] = config_path;
+  if (model) {
+    j["overrides"] = overrides;
+    j["configuration"] = json::parse(resolved_configuration(*model).dump());
+  }
   j["model"] = s.model_label;
   j["status"] = std::string(to_string(s.status));
   j["message"] = s.message;

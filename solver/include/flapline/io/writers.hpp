@@ -40,7 +40,11 @@ const std::vector<std::string>& spanwise_numeric_columns();
 std::vector<std::vector<double>> spanwise_table(const RunSummary& summary);
 
 /// summary.json: every cycle average and figure, units in the key names.
-std::string summary_json(const RunSummary& summary, const std::string& config_path = {});
+/// With `model`: also the `--set` overrides as typed (`overrides`) and the full resolved
+/// configuration (`configuration`, io/resolved.hpp) for a rerun.
+std::string summary_json(const RunSummary& summary, const std::string& config_path = {},
+                         const Model* model = nullptr,
+                         const std::vector<std::string>& overrides = {});
 
 /// state_space.json: the frozen-time matrices A, B, C, D (row by row) with their dimensions and
 /// the ordering of states, inputs and outputs.
