@@ -203,3 +203,34 @@ TEST_CASE("a setting the chosen model would ignore is refused, also after --set 
     }
   fs::remove_all(out);
 }
+
+TEST_CASE(
+    "output folders: a folder flapline did not write is refused; a rerun replaces its files") {
+  const fs::path out = test::fresh_folder("owned_folder");
+  fs::create_directories(out);
+  std::ofstream(out / "notes.txt") << "someone's notes\n";
+  const std::string config = "\"" + test::source_path("configs/hover_insect.yaml") + "\"";
+  const std::string quick =
+      " --set wing.strips=6 --set simulation.steps_per_cycle=40 "
+      "--set simulation.samples_per_cycle=20 --set simulation.max_cycles=2";
+  std::string log;
+  // Not written by flapline and not empty: refused, nothing written, nothing touched.
+  CHECK(test::run_cli("run " + config + quick + " -o \"" + out.string() + "\"", log) == 2);
+  CHECK(log.find(out.string()) != std::string::npos);
+  CHECK(log.find("did not write") != std::string::npos);
+  CHECK_FALSE(fs::exists(out / "summary.json"));
+  CHECK(fs::exists(out / "notes.txt"));
+  fs::remove(out / "notes.txt");
+  // Empty: used, and marked. A second run without figures removes the first run's figures but
+  // leaves a file someone added since.
+  CHECK(test::run_cli("run " + config + quick + " --plot -o \"" + out.string() + "\"", log) == 0);
+  CHECK(fs::exists(out / ".flapline-output"));
+  const bool figures = fs::exists(out / "forces.svg");
+  std::ofstream(out / "notes.txt") << "added after the run\n";
+  CHECK(test::run_cli("run " + config + quick + " --no-plot -o \"" + out.string() + "\"", log) ==
+        0);
+  CHECK(fs::exists(out / "summary.json"));
+  CHECK(fs::exists(out / "notes.txt"));
+  if (figures) CHECK_FALSE(fs::exists(out / "forces.svg"));
+  fs::remove_all(out);
+}

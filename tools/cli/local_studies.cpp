@@ -183,7 +183,7 @@ int trim_command(const TrimArgs& a) {
   const fs::path dir = a.out.empty()
                            ? fs::path("results") / (fs::path(a.config).stem().string() + "_trim")
                            : fs::path(a.out);
-  io::OutputFolder folder(dir);
+  io::OutputFolder folder(dir, io::OutputFolder::Ownership::whole);
   folder.add("trim.json", io::trim_json(r, free, a.tolerance, kInnerRunsText));
   std::string plot_note;
   if (a.plot && io::gnuplot_available() && !r.history.empty())
@@ -288,7 +288,7 @@ int derivatives_command(const DerivativesArgs& a) {
   const fs::path dir =
       a.out.empty() ? fs::path("results") / (fs::path(a.config).stem().string() + "_derivatives")
                     : fs::path(a.out);
-  io::OutputFolder folder(dir);
+  io::OutputFolder folder(dir, io::OutputFolder::Ownership::whole);
   folder.add("derivatives.csv", io::derivatives_csv(t));
   folder.add("derivatives.json", io::derivatives_json(t));
   if (a.plot && io::gnuplot_available())
@@ -336,7 +336,7 @@ int modes_command(const DerivativesArgs& a) {
   const fs::path dir = a.out.empty()
                            ? fs::path("results") / (fs::path(a.config).stem().string() + "_modes")
                            : fs::path(a.out);
-  io::OutputFolder folder(dir);
+  io::OutputFolder folder(dir, io::OutputFolder::Ownership::whole);
   folder.add("modes.json", io::modes_json(lm, inputs, input_units, modes, warnings));
   folder.add("derivatives.csv", io::derivatives_csv(t));
   folder.add("derivatives.json", io::derivatives_json(t));

@@ -65,10 +65,11 @@ int run_command(const RunArgs& a) {
   if (a.state_space_time && model.aero_options().kind == ModelKind::quasi_steady)
     throw InputError("--state-space", format_number(*a.state_space_time),
                      "needs a model with states: model.kind wagner or lifting_line");
-  const RunSummary summary = run_model(model, a.config, a.sets, a.quiet);
   const fs::path dir =
       a.out.empty() ? fs::path("results") / fs::path(a.config).stem() : fs::path(a.out);
-  io::OutputFolder folder(dir);
+  io::OutputFolder::check_claimable(dir);  // before the run, not after it
+  const RunSummary summary = run_model(model, a.config, a.sets, a.quiet);
+  io::OutputFolder folder(dir, io::OutputFolder::Ownership::whole);
   folder.add("history.csv", io::history_csv(summary));
   folder.add("summary.json", io::summary_json(summary, a.config, &model, a.sets));
   folder.add("resolved.yaml", io::resolved_yaml(model));
@@ -135,6 +136,8 @@ int compare_command(const CompareArgs& a) {
     throw InputError("compare", "'" + a.configs.front() + "'",
                      "needs two or more configs, or one config with --variant sets");
   const ModelSpec first = io::load_spec(a.configs.front(), a.sets);
+  io::OutputFolder::check_claimable(a.out.empty() ? fs::path("results") / "comparison"
+                                                  : fs::path(a.out));
   std::vector<std::string> common = a.sets;
   const std::string kind = a.model.empty() ? std::string(to_string(first.aero.kind)) : a.model;
   const int strips = a.strips > 0 ? a.strips : first.strips.count;
@@ -204,7 +207,7 @@ int compare_command(const CompareArgs& a) {
                                std::to_string(first.simulation.samples_per_cycle) +
                                " samples per cycle; cycle means of the last cycle.";
   const fs::path dir = a.out.empty() ? fs::path("results") / "comparison" : fs::path(a.out);
-  io::OutputFolder folder(dir);
+  io::OutputFolder folder(dir, io::OutputFolder::Ownership::whole);
   folder.add("comparison.csv", io::comparison_csv(cases));
   folder.add("comparison.md", io::comparison_markdown(cases, settings));
   std::string plot_note;
@@ -254,7 +257,8 @@ int validate_command(const ValidateArgs& a) {
   std::vector<validation::CaseResult> results;
   const bool plots = a.plot && io::gnuplot_available();
   const fs::path out = a.out.empty() ? fs::path("results") / "validation" : fs::path(a.out);
-  io::OutputFolder folder(out);
+  io::OutputFolder::check_claimable(out);
+  io::OutputFolder folder(out, io::OutputFolder::Ownership::whole);
   bool all_ok = true;
   for (const auto& spec : cases) {
     const auto t0 = std::chrono::steady_clock::now();

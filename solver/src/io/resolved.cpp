@@ -130,8 +130,8 @@ json wing(const ModelSpec& s) {
     if (!m.table_span_fraction.empty()) {
       json rows = json::array();
       for (std::size_t i = 0; i < m.table_span_fraction.size(); ++i)
-        rows.push_back(json::array({m.table_span_fraction[i], m.table_mass_per_span[i],
-                                    m.table_centre_fraction[i]}));
+        rows.push_back(json::array(
+            {m.table_span_fraction[i], m.table_mass_per_span[i], m.table_centre_fraction[i]}));
       mass["per_span"] = rows;
     }
     if (!m.points.empty()) {
@@ -153,10 +153,10 @@ json model_options(const AeroOptions& o) {
   j["vortex_lift"] = o.vortex_lift;
   if (o.law == CoefficientLaw::revolving_fit) {
     const RevolvingFit& f = o.fit;
-    j["fit"] = json{{"lift_offset", f.lift_offset},   {"lift_amplitude", f.lift_amplitude},
-                    {"lift_rate", f.lift_rate},       {"lift_shift", f.lift_shift},
-                    {"drag_offset", f.drag_offset},   {"drag_amplitude", f.drag_amplitude},
-                    {"drag_rate", f.drag_rate},       {"drag_shift", f.drag_shift}};
+    j["fit"] = json{{"lift_offset", f.lift_offset}, {"lift_amplitude", f.lift_amplitude},
+                    {"lift_rate", f.lift_rate},     {"lift_shift", f.lift_shift},
+                    {"drag_offset", f.drag_offset}, {"drag_amplitude", f.drag_amplitude},
+                    {"drag_rate", f.drag_rate},     {"drag_shift", f.drag_shift}};
   }
   j["wagner_fit"] = std::string(to_string(o.wagner_fit));
   j["reverse_flow"] = std::string(to_string(o.reverse_flow));
@@ -193,7 +193,8 @@ void emit(YAML::Emitter& out, const json& j) {
     }
     out << YAML::EndMap;
   } else if (j.is_array()) {
-    const bool flat = std::all_of(j.begin(), j.end(), [](const json& e) { return e.is_primitive(); });
+    const bool flat =
+        std::all_of(j.begin(), j.end(), [](const json& e) { return e.is_primitive(); });
     out << (flat ? YAML::Flow : YAML::Block) << YAML::BeginSeq;
     for (const json& e : j) emit(out, e);
     out << YAML::EndSeq;
@@ -237,16 +238,16 @@ json resolved_configuration(const Model& model) {
   j["gait"] = gait;
   // The flight as the run used it: a flight condition is resolved into velocity and rates.
   const FlightSpec& f = model.flight();
-  j["flight"] = json{{"velocity", vec(f.velocity)},
-                     {"rates", vec(f.rates, kDegree)},
-                     {"wind", vec(f.wind)}};
+  j["flight"] =
+      json{{"velocity", vec(f.velocity)}, {"rates", vec(f.rates, kDegree)}, {"wind", vec(f.wind)}};
   j["air"] = json{{"density", model.air().density},
                   {"kinematic_viscosity", model.air().kinematic_viscosity}};
   if (const auto& v = model.vehicle()) {
-    j["vehicle"] = json{{"mass", v->mass},
-                        {"inertia", json{{"xx", v->ixx}, {"yy", v->iyy}, {"zz", v->izz}, {"xz", v->ixz}}},
-                        {"drag_area", v->drag_area},
-                        {"attitude", json{{"roll", typed(v->roll, kDegree)}, {"pitch", typed(v->pitch, kDegree)}}}};
+    j["vehicle"] = json{
+        {"mass", v->mass},
+        {"inertia", json{{"xx", v->ixx}, {"yy", v->iyy}, {"zz", v->izz}, {"xz", v->ixz}}},
+        {"drag_area", v->drag_area},
+        {"attitude", json{{"roll", typed(v->roll, kDegree)}, {"pitch", typed(v->pitch, kDegree)}}}};
   }
   j["model"] = model_options(model.aero_options());
   j["simulation"] = simulation(model.simulation());

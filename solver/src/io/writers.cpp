@@ -2,12 +2,14 @@
 
 #include <unistd.h>
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 #include <fstream>
 #include <nlohmann/json.hpp>
 #include <stdexcept>
 
+#include "flapline/common/errors.hpp"
 #include "flapline/common/math.hpp"
 #include "flapline/io/resolved.hpp"
 #include "flapline/simulation/summary_keys.hpp"
@@ -357,9 +359,58 @@ std::vector<std::filesystem::path> OutputFolder::paths() const {
   return out;
 }
 
+void OutputFolder::check_claimable(const std::filesystem::path& dir, const std::string& option) {
+  namespace fs = std::filesystem;
+  std::error_code ec;
+  if (!fs::exists(dir, ec)) return;
+  if (!fs::is_directory(dir, ec))
+    throw InputError(option, dir.string(), "is a file, not a folder",
+                     "choose a folder for the results");
+  if (fs::is_empty(dir, ec) || fs::exists(dir / kMarker, ec)) return;
+  throw InputError(option, dir.string(),
+                   "holds files flapline did not write; results go to a new or empty folder, or "
+                   "one an earlier flapline run wrote (it replaces that run's files)",
+                   "choose another folder with -o");
+}
+
+namespace {
+/// The file names an earlier run listed in the marker (none when there is no marker).
+std::vector<std::string> marked_files(const std::filesystem::path& marker) {
+  std::vector<std::string> out;
+  std::ifstream in(marker);
+  std::string line;
+  while (std::getline(in, line))
+    if (!line.empty() && line[0] != '#' && line.find('/') == std::string::npos && line != ".." &&
+        line != ".")
+      out.push_back(line);
+  return out;
+}
+}  // namespace
+
 void OutputFolder::commit() {
   namespace fs = std::filesystem;
   std::error_code ec;
+  if (own_ == Ownership::whole) {
+    check_claimable(dir_);
+    const std::vector<std::string> earlier = marked_files(dir_ / kMarker);
+    std::string marker =
+        "# Written by flapline " + std::string(kVersion) +
+        ": the next run into this folder rewrites these files and removes the ones it does not "
+        "write again.\n";
+    for (const auto& f : files_) marker += f.first + "\n";
+    Ownership own = Ownership::files;
+    std::swap(own, own_);
+    files_.emplace_back(kMarker, marker);
+    commit();  // the files and the marker, all or none
+    std::swap(own, own_);
+    for (const std::string& name : earlier) {
+      const bool rewritten =
+          std::any_of(files_.begin(), files_.end(), [&](const auto& f) { return f.first == name; });
+      if (!rewritten) fs::remove(dir_ / name, ec);
+    }
+    files_.pop_back();
+    return;
+  }
   const bool created = !fs::exists(dir_);
   fs::create_directories(dir_, ec);
   if (ec)

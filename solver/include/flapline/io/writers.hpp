@@ -53,9 +53,23 @@ std::string state_space_json(const StateSpace& ss, const Model& model);
 /// Collects files and writes them all or none: each goes to a temporary name in the target
 /// folder and is renamed only when every write succeeded. A failed or abandoned commit leaves no
 /// file behind (nor the folder, when it created it).
+///
+/// A folder a command owns as a whole (`Ownership::whole`: run, compare, validate, trim,
+/// derivatives, modes) carries a marker file listing what flapline wrote there. Such a folder
+/// must be new, empty or marked; a rerun rewrites its files and removes the earlier run's files
+/// that it does not rewrite (only files the marker lists). A non-empty folder without the marker
+/// is refused (InputError naming the folder) before anything is written.
 class OutputFolder {
  public:
-  explicit OutputFolder(std::filesystem::path dir) : dir_(std::move(dir)) {}
+  enum class Ownership { files, whole };
+  /// The marker's file name inside an owned folder.
+  static constexpr const char* kMarker = ".flapline-output";
+  explicit OutputFolder(std::filesystem::path dir, Ownership own = Ownership::files)
+      : dir_(std::move(dir)), own_(own) {}
+  /// Throws InputError (key `option`, e.g. "--out") when `dir` exists, is not empty and was not
+  /// written by flapline: call it before a long run.
+  static void check_claimable(const std::filesystem::path& dir,
+                              const std::string& option = "--out");
   /// Queue a file (name relative to the folder).
   void add(std::string name, std::string content);
   /// Write everything; throws std::runtime_error naming the file that failed.
@@ -65,6 +79,7 @@ class OutputFolder {
 
  private:
   std::filesystem::path dir_;
+  Ownership own_ = Ownership::files;
   std::vector<std::pair<std::string, std::string>> files_;
 };
 
