@@ -41,6 +41,10 @@ WingPose wing_pose(const WingMotion& m, double t) {
   p.span_ratio = lam.value;
   p.span_ratio_rate = lam.rate;
   p.span_ratio_accel = lam.accel;
+  p.stroke_rate = phi.rate;
+  p.deviation_rate = theta.rate;
+  p.pitch_rate = psi.rate;
+  p.plunge_rate = h.rate;
 
   // Stroke-plane frame: a1 = -z (stroke axis), a2 = R_z(-φ)x (deviation axis),
   // a3 = R_z(-φ)R_x(-θ)y (span axis); ω_S = φ̇ a1 - θ̇ a2 + ψ̇ a3 (DESIGN §2).

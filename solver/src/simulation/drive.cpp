@@ -68,10 +68,8 @@ MassSums mass_sums(const MassElements& me, const WingMotion& m, const WingPose& 
 
 }  // namespace
 
-void add_drive(const Model& model, const Workspace& ws, double t, LoadSample& out) {
-  const Eigen::Index n = model.strips_per_wing();
-  const StripLoads& L = ws.loads;
-  const double f = model.frequency();
+void add_drive(const Model& model, const Workspace& ws, const std::array<Wrench, 2>& virtual_wrench,
+               const std::array<double, 2>& span_load, LoadSample& out) {
   const bool with_weight = model.vehicle().has_value();
   const Eigen::Vector3d g = with_weight
                                 ? gravity_body(model.vehicle()->roll, model.vehicle()->pitch)
@@ -85,23 +83,16 @@ void add_drive(const Model& model, const Workspace& ws, double t, LoadSample& ou
     const WingPose& p = ws.poses[si];
     WingDriveSample& d = out.drive[si];
     d = WingDriveSample{};
-    d.rate = {m.stroke.at(t, f).rate, m.deviation.at(t, f).rate, m.pitch.at(t, f).rate,
-              p.span_ratio_rate, m.plunge.at(t, f).rate};
+    d.rate = {p.stroke_rate, p.deviation_rate, p.pitch_rate, p.span_ratio_rate, p.plunge_rate};
     // Joint axes: ω_rel = φ̇ u_φ + θ̇ u_θ + ψ̇ u_ψ with u_φ = R_β(−z), u_θ = −R_β R_z(−φ)x,
     // u_ψ = e_s (wing_pose, DESIGN §2).
     const std::array<Eigen::Vector3d, 3> axis{m.stroke_plane * Eigen::Vector3d(0.0, 0.0, -1.0),
                                               -(m.stroke_plane * rotation_z(-p.stroke).col(0)),
                                               p.span_axis};
-    Eigen::Vector3d moment = Eigen::Vector3d::Zero(), force = Eigen::Vector3d::Zero();
-    double span = 0.0;
-    for (Eigen::Index i = 0; i < n; ++i) {
-      const Eigen::Index k = s * n + i;
-      const SectionState& sec = ws.sections[static_cast<std::size_t>(k)];
-      const Eigen::Vector3d fq = L.force_quarter.col(k), fm = L.force_mid.col(k);
-      moment += (sec.quarter - p.hinge).cross(fq) + (sec.mid - p.hinge).cross(fm) + L.couple.col(k);
-      force += fq + fm;
-      span += model.pair().radius(k) * (fq + fm).dot(p.span_axis);
-    }
+    const Wrench& w = virtual_wrench[si];
+    const Eigen::Vector3d moment = w.moment - p.hinge.cross(w.force);  // about the hinge
+    const Eigen::Vector3d& force = w.force;
+    const double span = span_load[si];
     for (int a = 0; a < 3; ++a) d.torque_aero[static_cast<std::size_t>(a)] = -axis[a].dot(moment);
     d.torque_aero[3] = -span;
     d.torque_aero[4] = -force.dot(down);

@@ -115,9 +115,9 @@ void kinematic_warnings(const Model& model, RunSummary& out) {
   // side of the body's plane of symmetry, where the left wing is its mirror image.
   const Strips& st = model.strips();
   const Eigen::Index last = st.size();
-  constexpr int samples = 256;
+  constexpr int samples = 96;
   double worst = 0.0, worst_phase = 0.0;
-  for (int s = 0; s < 2; ++s) {
+  for (int s = 0; s < (model.mirror_gait() ? 1 : 2); ++s) {  // mirror gait: the left is alike
     const WingMotion& m = model.motion(static_cast<Side>(s));
     for (int j = 0; j < samples; ++j) {
       const double phase = static_cast<double>(j) / samples;

@@ -1,5 +1,7 @@
 #include "flapline/simulation/wrench.hpp"
 
+#include <array>
+
 #include "flapline/case/model.hpp"
 #include "flapline/case/workspace.hpp"
 #include "flapline/common/math.hpp"
@@ -12,10 +14,12 @@ LoadSample sum_loads(const Model& model, const Workspace& ws, double t) {
   out.time = t;
   const Eigen::Index n = model.strips_per_wing();
   const StripLoads& L = ws.loads;
+  std::array<Wrench, 2> virtual_wrench;  // each wing in its virtual frame (for the drive)
+  std::array<double, 2> span_load{0.0, 0.0};
   for (int s = 0; s < 2; ++s) {
     const WingPose& pose = ws.poses[static_cast<std::size_t>(s)];
-    Wrench w;  // virtual frame
-    double p_air = 0.0, p_act = 0.0;
+    Wrench& w = virtual_wrench[static_cast<std::size_t>(s)];
+    double p_air = 0.0, p_act = 0.0, span = 0.0;
     for (Eigen::Index i = 0; i < n; ++i) {
       const Eigen::Index k = s * n + i;
       const SectionState& sec = ws.sections[static_cast<std::size_t>(k)];
@@ -26,7 +30,9 @@ LoadSample sum_loads(const Model& model, const Workspace& ws, double t) {
       // −F·(v − wind) = F·q (q: air velocity relative to the point).
       p_air += fq.dot(sec.q_quarter) + fm.dot(sec.q_mid) - c.dot(pose.omega);
       p_act -= fq.dot(sec.v_rel_quarter) + fm.dot(sec.v_rel_mid) + c.dot(pose.omega_rel);
+      span += model.pair().radius(k) * (fq + fm).dot(pose.span_axis);
     }
+    span_load[static_cast<std::size_t>(s)] = span;
     Wrench& body = out.wing[static_cast<std::size_t>(s)];
     if (s == 0) {
       body = w;
@@ -47,7 +53,7 @@ LoadSample sum_loads(const Model& model, const Workspace& ws, double t) {
     for (Eigen::Index k = 0; k < 2 * n; ++k)
       out.profile_drag +=
           k < n ? Eigen::Vector3d(L.profile_drag.col(k)) : mirror(L.profile_drag.col(k));
-  add_drive(model, ws, t, out);
+  add_drive(model, ws, virtual_wrench, span_load, out);
   return out;
 }
 

@@ -33,6 +33,8 @@ struct WingMotion {
 struct WingPose {
   double stroke = 0, deviation = 0, pitch = 0;  ///< rad
   double span_ratio = 1, span_ratio_rate = 0, span_ratio_accel = 0;
+  double stroke_rate = 0, deviation_rate = 0, pitch_rate = 0;  ///< rad/s
+  double plunge_rate = 0;                                      ///< m/s
   Eigen::Matrix3d rotation;       ///< R_BW = R_y(β) R_z(-φ) R_x(-θ) R_y(ψ) (no twist)
   Eigen::Vector3d chord_axis;     ///< e_c of an untwisted section, toward the leading edge
   Eigen::Vector3d normal_axis;    ///< e_n = e_s × e_c of an untwisted section

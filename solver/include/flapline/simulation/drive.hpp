@@ -34,8 +34,11 @@ struct EnumNames<Joint> {
 };
 static_assert(kJoints == 5, "one generalised force per joint coordinate");
 
-/// Fill out.drive, out.inertial, out.power_mechanical and out.power_inertial from the poses,
-/// sections and strip loads in ws at time t (sum_loads has filled the aerodynamic part).
-void add_drive(const Model& model, const Workspace& ws, double t, LoadSample& out);
+/// Fill out.drive, out.inertial, out.power_mechanical and out.power_inertial from the poses in
+/// ws and the strip-load sums of sum_loads: each wing's wrench about the body origin in its
+/// virtual frame (Σ x×F + C, ΣF) and Σ r F·e_s (r unscaled), which give the aerodynamic joint
+/// torques without another pass over the strips (Σ(x − h)×F = Σ x×F − h×ΣF).
+void add_drive(const Model& model, const Workspace& ws, const std::array<Wrench, 2>& virtual_wrench,
+               const std::array<double, 2>& span_load, LoadSample& out);
 
 }  // namespace flapline
