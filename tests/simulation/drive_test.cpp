@@ -13,13 +13,7 @@ using namespace flapline;
 
 namespace {
 
-WaveformSpec harmonic(double mean, double amplitude, double phase) {
-  WaveformSpec w;
-  w.mean = mean;
-  w.amplitude = amplitude;
-  w.phase = phase;
-  return w;
-}
+using samples::harmonic;
 
 /// A uniform rectangular plate (R = 0.1 m, c = 0.03 m, pitch axis x₀ = 0.3), root at the hinge,
 /// at constant pitch ψ, stroking harmonically in a level stroke plane in near-vacuum.

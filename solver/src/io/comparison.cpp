@@ -14,15 +14,6 @@ double or_nan(const std::optional<double>& v) {
   return v ? *v : std::numeric_limits<double>::quiet_NaN();
 }
 
-/// Rounding noise (below 1e-12 of the case's force scale RMS |F|, or of that times the span for
-/// moments) is shown as 0; never −0.
-double force_shown(const RunSummary& s, double v) {
-  return std::abs(v) <= 1e-12 * s.averages.force_rms ? 0.0 : v + 0.0;
-}
-double moment_shown(const RunSummary& s, double v) {
-  return std::abs(v) <= 1e-12 * s.averages.force_rms * s.derived.span ? 0.0 : v + 0.0;
-}
-
 std::string cell(double v) {
   if (!std::isfinite(v)) return "n/a";
   char buf[32];
@@ -47,16 +38,16 @@ Series last_cycle_series(const RunSummary& s, const std::string& title, bool pow
 
 const std::vector<ComparedQuantity>& compared_quantities() {
   static const std::vector<ComparedQuantity> q{
-      {"mean lift (N)", [](const RunSummary& s) { return force_shown(s, s.mean_lift()); }},
-      {"mean thrust (N)", [](const RunSummary& s) { return force_shown(s, s.mean_thrust()); }},
+      {"mean lift (N)", [](const RunSummary& s) { return s.shown_force(s.mean_lift()); }},
+      {"mean thrust (N)", [](const RunSummary& s) { return s.shown_force(s.mean_thrust()); }},
       {"mean side force (N)",
-       [](const RunSummary& s) { return force_shown(s, s.mean_side_force()); }},
+       [](const RunSummary& s) { return s.shown_force(s.mean_side_force()); }},
       {"mean roll moment L (N m)",
-       [](const RunSummary& s) { return moment_shown(s, s.averages.mean.moment.x()); }},
+       [](const RunSummary& s) { return s.shown_moment(s.averages.mean.moment.x()); }},
       {"mean pitch moment M (N m)",
-       [](const RunSummary& s) { return moment_shown(s, s.averages.mean.moment.y()); }},
+       [](const RunSummary& s) { return s.shown_moment(s.averages.mean.moment.y()); }},
       {"mean yaw moment N (N m)",
-       [](const RunSummary& s) { return moment_shown(s, s.averages.mean.moment.z()); }},
+       [](const RunSummary& s) { return s.shown_moment(s.averages.mean.moment.z()); }},
       {"mean power to the air (W)", [](const RunSummary& s) { return s.averages.power_air_mean; }},
       {"mean actuator power (W)",
        [](const RunSummary& s) { return s.averages.power_actuator_mean; }},

@@ -2,12 +2,13 @@
 
 #include <yaml-cpp/yaml.h>
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 #include <cstdlib>
-#include <cstring>
 
 #include "flapline/common/math.hpp"
+#include "flapline/studies/design.hpp"
 #include "flapline/version.hpp"
 
 namespace flapline::io {
@@ -199,20 +200,7 @@ void emit(YAML::Emitter& out, const json& j) {
     for (const json& e : j) emit(out, e);
     out << YAML::EndSeq;
   } else if (j.is_number_float()) {
-    // Shortest text that reads back as the same double.
-    char buf[64];
-    const double v = j.get<double>() + 0.0;  // no -0
-    int digits = 1;
-    for (; digits <= 17; ++digits) {
-      std::snprintf(buf, sizeof buf, "%.*g", digits, v);
-      if (std::strtod(buf, nullptr) == v) break;
-    }
-    const double a = std::abs(v);
-    if (std::strchr(buf, 'e') && a >= 1e-4 && a < 1e15) {  // 9e+01 -> 90
-      const int decimals = std::max(0, digits - 1 - static_cast<int>(std::floor(std::log10(a))));
-      std::snprintf(buf, sizeof buf, "%.*f", decimals, v);
-    }
-    out << buf;
+    out << studies::shortest(j.get<double>());  // reads back as the same double; never -0
   } else if (j.is_number_integer()) {
     out << j.get<long long>();
   } else if (j.is_boolean()) {

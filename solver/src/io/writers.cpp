@@ -100,17 +100,29 @@ const std::vector<std::string>& history_columns() {
   return c;
 }
 
-std::vector<std::vector<double>> history_table(const RunSummary& s) {
-  std::vector<std::vector<double>> t(history_columns().size());
+namespace {
+/// One column per quantity, one row per history sample: time, cycle and phase first, then what
+/// `row(r, put)` puts, in column order.
+template <class Row>
+std::vector<std::vector<double>> timed_table(std::size_t columns, const RunSummary& s, Row row) {
+  std::vector<std::vector<double>> t(columns);
   for (auto& c : t) c.reserve(s.history.size());
   for (const HistoryRow& r : s.history) {
     std::size_t k = 0;
-    auto put = [&](double v) { t[k++].push_back(v); };
+    const auto put = [&](double v) { t[k++].push_back(v); };
     const double cycles = r.loads.time * s.frequency;
     const double cycle = std::floor(cycles + 1e-9);
     put(r.loads.time);
     put(cycle);
     put(std::max(0.0, cycles - cycle));
+    row(r, put);
+  }
+  return t;
+}
+}  // namespace
+
+std::vector<std::vector<double>> history_table(const RunSummary& s) {
+  return timed_table(history_columns().size(), s, [](const HistoryRow& r, const auto& put) {
     for (const Wrench* w : {&r.loads.total}) {
       for (int i = 0; i < 3; ++i) put(w->force(i));
       for (int i = 0; i < 3; ++i) put(w->moment(i));
@@ -140,22 +152,18 @@ std::vector<std::vector<double>> history_table(const RunSummary& s) {
       for (int i = 0; i < 3; ++i) put(d.inertial.force(i));
       for (int i = 0; i < 3; ++i) put(d.inertial.moment(i));
     }
-  }
-  return t;
+  });
 }
 
 const std::vector<std::string>& drive_columns() {
   static const std::vector<std::string> c = [] {
     std::vector<std::string> out{"time_s", "cycle", "phase"};
-    const char* joints[] = {"stroke", "deviation", "pitch", "span_ratio", "plunge"};
-    const char* rate_units[] = {"rad_s", "rad_s", "rad_s", "per_s", "m_s"};
-    const char* units[] = {"Nm", "Nm", "Nm", "J", "N"};
     for (const char* wing : {"right", "left"}) {
       for (int j = 0; j < kJoints; ++j) {
-        const std::string p = std::string(wing) + "_" + joints[j] + "_";
-        out.push_back(p + "rate_" + rate_units[j]);
+        const std::string p = std::string(wing) + "_" + kJointNames[j] + "_";
+        out.push_back(p + "rate_" + kJointRateUnits[j]);
         for (const char* part : {"torque_", "torque_aero_", "torque_inertial_", "torque_gravity_"})
-          out.push_back(p + part + units[j]);
+          out.push_back(p + part + kJointForceUnits[j]);
         out.push_back(p + "power_W");
       }
       out.push_back(std::string(wing) + "_power_W");
@@ -168,16 +176,7 @@ const std::vector<std::string>& drive_columns() {
 }
 
 std::vector<std::vector<double>> drive_table(const RunSummary& s) {
-  std::vector<std::vector<double>> t(drive_columns().size());
-  for (auto& c : t) c.reserve(s.history.size());
-  for (const HistoryRow& r : s.history) {
-    std::size_t k = 0;
-    auto put = [&](double v) { t[k++].push_back(v); };
-    const double cycles = r.loads.time * s.frequency;
-    const double cycle = std::floor(cycles + 1e-9);
-    put(r.loads.time);
-    put(cycle);
-    put(std::max(0.0, cycles - cycle));
+  return timed_table(drive_columns().size(), s, [](const HistoryRow& r, const auto& put) {
     for (const WingDriveSample& d : r.loads.drive) {
       for (std::size_t j = 0; j < static_cast<std::size_t>(kJoints); ++j) {
         put(d.rate[j]);
@@ -191,8 +190,7 @@ std::vector<std::vector<double>> drive_table(const RunSummary& s) {
       put(d.power_inertial);
     }
     put(r.loads.power_mechanical);
-  }
-  return t;
+  });
 }
 
 namespace {
@@ -388,29 +386,29 @@ std::vector<std::string> marked_files(const std::filesystem::path& marker) {
 }  // namespace
 
 void OutputFolder::commit() {
-  namespace fs = std::filesystem;
-  std::error_code ec;
-  if (own_ == Ownership::whole) {
-    check_claimable(dir_);
-    const std::vector<std::string> earlier = marked_files(dir_ / kMarker);
-    std::string marker =
-        "# Written by flapline " + std::string(kVersion) +
-        ": the next run into this folder rewrites these files and removes the ones it does not "
-        "write again.\n";
-    for (const auto& f : files_) marker += f.first + "\n";
-    Ownership own = Ownership::files;
-    std::swap(own, own_);
-    files_.emplace_back(kMarker, marker);
-    commit();  // the files and the marker, all or none
-    std::swap(own, own_);
-    for (const std::string& name : earlier) {
-      const bool rewritten =
-          std::any_of(files_.begin(), files_.end(), [&](const auto& f) { return f.first == name; });
-      if (!rewritten) fs::remove(dir_ / name, ec);
-    }
-    files_.pop_back();
+  if (own_ == Ownership::files) {
+    write_all();
     return;
   }
+  namespace fs = std::filesystem;
+  check_claimable(dir_);
+  const std::vector<std::string> earlier = marked_files(dir_ / kMarker);
+  std::string marker = "# Written by flapline " + std::string(kVersion) +
+                       ": the next run into this folder rewrites these files and removes the ones "
+                       "it does not write again.\n";
+  for (const auto& f : files_) marker += f.first + "\n";
+  files_.emplace_back(kMarker, std::move(marker));
+  write_all();  // the files and the marker, all or none
+  files_.pop_back();
+  std::error_code ec;
+  for (const std::string& name : earlier)
+    if (std::none_of(files_.begin(), files_.end(), [&](const auto& f) { return f.first == name; }))
+      fs::remove(dir_ / name, ec);
+}
+
+void OutputFolder::write_all() {
+  namespace fs = std::filesystem;
+  std::error_code ec;
   const bool created = !fs::exists(dir_);
   fs::create_directories(dir_, ec);
   if (ec)

@@ -3,7 +3,6 @@
 #include "flapline/common/math.hpp"
 
 namespace flapline::samples {
-namespace {
 WaveformSpec harmonic(double mean, double amplitude, double phase) {
   WaveformSpec w;
   w.mean = mean;
@@ -11,7 +10,6 @@ WaveformSpec harmonic(double mean, double amplitude, double phase) {
   w.phase = phase;
   return w;
 }
-}  // namespace
 
 ModelSpec hover_insect() {
   ModelSpec s;

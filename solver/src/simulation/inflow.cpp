@@ -94,12 +94,13 @@ RunSummary simulate_with_inflow(const Model& model, Workspace& ws, const RunCont
     ++cycles;
     used = w_vec;
     const Eigen::Vector3d force = last.averages.mean.force;
-    if (!disc) {
-      // The lift: the mean force normal to the airspeed; w₀ opposes it.
+    if (disc) {
+      thrust = -force.dot(direction);
+    } else {  // the lift, the mean force normal to the airspeed, carries it; w₀ opposes it
       const Eigen::Vector3d lift = force - force.dot(along) * along;
-      if (lift.norm() > 0.0) direction = -lift.normalized();
+      thrust = lift.norm();
+      if (thrust > 0.0) direction = -lift / thrust;
     }
-    thrust = disc ? -force.dot(direction) : (force - force.dot(along) * along).norm();
     const double vn = freestream.dot(direction);
     const double vp = (freestream - vn * direction).norm();
     target = glauert(thrust, rho, area, vp, vn);

@@ -30,13 +30,6 @@ std::string opt(const std::optional<double>& v, const char* fmt = "%.4g") {
   return buf;
 }
 
-/// 0 for a value below 1e-12 of its scale: rounding noise of a quantity zero by symmetry or by
-/// construction (the side force of a symmetric gait, an aerodynamic load along the span, the mean
-/// inertial power of a periodic gait); never −0.
-double shown(double v, double scale) {
-  return std::abs(v) <= 1e-12 * std::abs(scale) ? 0.0 : v + 0.0;
-}
-
 std::string header(const RunSummary& s) {
   std::string out;
   out += line("flapline run: %s", s.title.empty() ? "(untitled)" : s.title.c_str());
@@ -51,12 +44,12 @@ std::string header(const RunSummary& s) {
 /// Forces below 1e-12 of the run's force scale (RMS |F|) and moments below 1e-12 of that times
 /// the span print as 0.
 std::string wrench_lines(const RunSummary& s, const Wrench& w, const char* indent) {
-  const double f = s.averages.force_rms, m = f * s.derived.span;
   std::string out;
   out += line("%slift %+.5g N   thrust %+.5g N   side force %+.5g N", indent,
-              shown(-w.force.z(), f), shown(w.force.x(), f), shown(w.force.y(), f));
+              s.shown_force(-w.force.z()), s.shown_force(w.force.x()), s.shown_force(w.force.y()));
   out += line("%sroll L %+.5g N m   pitch M %+.5g N m   yaw N %+.5g N m", indent,
-              shown(w.moment.x(), m), shown(w.moment.y(), m), shown(w.moment.z(), m));
+              s.shown_moment(w.moment.x()), s.shown_moment(w.moment.y()),
+              s.shown_moment(w.moment.z()));
   return out;
 }
 
@@ -78,12 +71,11 @@ std::string drive_lines(const RunSummary& s) {
       " pair: mechanical power %.5g W (perfect storage), %.5g W (no storage), peak %.5g W; "
       "inertial power mean %.3g W",
       a.power_mechanical_storage_perfect, a.power_mechanical_storage_none, a.power_mechanical_peak,
-      shown(a.power_inertial_mean, a.power_mechanical_peak));
+      shown_value(a.power_inertial_mean, a.power_mechanical_peak));
   out += line(" lift / drive power %s N/W (perfect storage), %s N/W (no storage)",
               opt(s.derived.lift_per_power_storage_perfect).c_str(),
               opt(s.derived.lift_per_power_storage_none).c_str());
-  static const char* names[] = {"stroke", "deviation", "pitch", "span ratio", "plunge"};
-  static const char* units[] = {"N m", "N m", "N m", "J", "N"};
+  static const char* units[] = {"N m", "N m", "N m", "J", "N"};  // kJointForceUnits, spelt out
   for (std::size_t w = 0; w < 2; ++w) {
     const WingDriveStats& d = a.drive[w];
     out += line(" %s wing: power %.5g W (perfect storage), %.5g W (no storage), peak %.5g W",
@@ -94,16 +86,20 @@ std::string drive_lines(const RunSummary& s) {
       out += line(
           "   %-10s torque RMS %.4g %s (aero %.4g, inertial %.4g), peak %.4g %s; power "
           "%.4g W / %.4g W, peak %.4g W",
-          names[j], q.torque_rms, units[j], shown(q.torque_aero_rms, q.torque_peak),
-          shown(q.torque_inertial_rms, q.torque_peak), q.torque_peak, units[j],
-          shown(q.power_storage_perfect, q.power_peak), shown(q.power_storage_none, q.power_peak),
-          q.power_peak);
+          kJointNames[j], q.torque_rms, units[j], shown_value(q.torque_aero_rms, q.torque_peak),
+          shown_value(q.torque_inertial_rms, q.torque_peak), q.torque_peak, units[j],
+          shown_value(q.power_storage_perfect, q.power_peak),
+          shown_value(q.power_storage_none, q.power_peak), q.power_peak);
     }
   }
   return out;
 }
 
 }  // namespace
+
+double shown_value(double v, double scale) {
+  return std::abs(v) <= kShownFraction * std::abs(scale) ? 0.0 : v + 0.0;
+}
 
 std::string RunSummary::brief_report() const {
   std::string out = header(*this);

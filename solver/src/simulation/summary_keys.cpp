@@ -81,9 +81,9 @@ const JointStats& joint_of(const RunSummary& s) {
 }
 
 template <int Wing, int J>
-void add_joint_keys(std::vector<SummaryKey>& keys, const std::string& prefix) {
-  static constexpr std::array<const char*, kJoints> unit{"Nm", "Nm", "Nm", "J", "N"};
-  const std::string u = unit[J];
+void add_joint_keys(std::vector<SummaryKey>& keys, const std::string& wing_prefix) {
+  const std::string prefix = wing_prefix + kJointNames[J] + ".";
+  const std::string u = kJointForceUnits[J];
   keys.push_back({prefix + "torque_rms_" + u,
                   [](const RunSummary& s) -> Value { return joint_of<Wing, J>(s).torque_rms; }});
   keys.push_back({prefix + "torque_peak_" + u,
@@ -117,11 +117,11 @@ void add_wing_drive_keys(std::vector<SummaryKey>& keys, const std::string& prefi
   keys.push_back({prefix + "inertial_power_mean_W", [](const RunSummary& s) -> Value {
                     return s.averages.drive[Wing].power_inertial_mean;
                   }});
-  add_joint_keys<Wing, 0>(keys, prefix + "stroke.");
-  add_joint_keys<Wing, 1>(keys, prefix + "deviation.");
-  add_joint_keys<Wing, 2>(keys, prefix + "pitch.");
-  add_joint_keys<Wing, 3>(keys, prefix + "span_ratio.");
-  add_joint_keys<Wing, 4>(keys, prefix + "plunge.");
+  add_joint_keys<Wing, 0>(keys, prefix);
+  add_joint_keys<Wing, 1>(keys, prefix);
+  add_joint_keys<Wing, 2>(keys, prefix);
+  add_joint_keys<Wing, 3>(keys, prefix);
+  add_joint_keys<Wing, 4>(keys, prefix);
 }
 
 std::vector<SummaryKey> make_keys() {

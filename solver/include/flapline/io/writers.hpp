@@ -78,6 +78,7 @@ class OutputFolder {
   std::vector<std::filesystem::path> paths() const;
 
  private:
+  void write_all();  ///< every queued file under a temporary name, then renamed; all or none
   std::filesystem::path dir_;
   Ownership own_ = Ownership::files;
   std::vector<std::pair<std::string, std::string>> files_;

@@ -7,6 +7,9 @@
 
 namespace flapline::samples {
 
+/// A harmonic waveform x = mean + amplitude·sin(2πft + phase), in SI units (rad for angles).
+WaveformSpec harmonic(double mean, double amplitude, double phase);
+
 /// Invented insect-scale hovering wing (configs/hover_insect.yaml): beta planform, R = 50 mm,
 /// c̄ = 16 mm, 25 Hz, 120° peak-to-peak smoothed-triangle stroke in a level stroke plane, flipping
 /// smoothed-square pitch ψ = 90° − 45°·sq(cos ωt), separated leading edge (suction recovery 0).

@@ -13,26 +13,12 @@
 
 #include <array>
 
-#include "flapline/common/enum_names.hpp"
 #include "flapline/simulation/wrench.hpp"
 
 namespace flapline {
 
 class Model;
 class Workspace;
-
-/// The joint coordinates of one wing.
-enum class Joint { stroke, deviation, pitch, span_ratio, plunge };
-template <>
-struct EnumNames<Joint> {
-  static constexpr std::array<std::pair<Joint, std::string_view>, 5> items{
-      {{Joint::stroke, "stroke"},
-       {Joint::deviation, "deviation"},
-       {Joint::pitch, "pitch"},
-       {Joint::span_ratio, "span_ratio"},
-       {Joint::plunge, "plunge"}}};
-};
-static_assert(kJoints == 5, "one generalised force per joint coordinate");
 
 /// Fill out.drive, out.inertial, out.power_mechanical and out.power_inertial from the poses in
 /// ws and the strip-load sums of sum_loads: each wing's wrench about the body origin in its

@@ -37,6 +37,13 @@ inline bool has_results(RunStatus s) noexcept {
   return s != RunStatus::input_error && s != RunStatus::blew_up;
 }
 
+/// Numbers shown to people (terminal, reports): a value within kShownFraction of its scale of
+/// zero is rounding noise of a quantity zero by symmetry or by construction (the side force of a
+/// symmetric gait, an aerodynamic load along the span, the mean inertial power of a periodic
+/// gait) and is shown as 0; never −0. Machine-readable files keep full precision.
+inline constexpr double kShownFraction = 1e-12;
+double shown_value(double v, double scale);
+
 /// The safety cautions every summary ends with.
 extern const char* const kCautions;
 
@@ -183,6 +190,9 @@ struct RunSummary {
   double mean_lift() const { return -averages.mean.force.z(); }
   double mean_thrust() const { return averages.mean.force.x(); }
   double mean_side_force() const { return averages.mean.force.y(); }
+  /// A force or moment as shown to people: the scale is the run's RMS |F| (× span for moments).
+  double shown_force(double v) const { return shown_value(v, averages.force_rms); }
+  double shown_moment(double v) const { return shown_value(v, averages.force_rms * derived.span); }
 
   /// A dozen lines: the headline numbers, warnings and the cautions.
   std::string brief_report() const;

@@ -24,6 +24,13 @@ struct Wrench {
 
 /// Joint coordinates per wing: stroke, deviation, pitch, span ratio, plunge.
 inline constexpr int kJoints = 5;
+/// Their names in summary keys and CSV columns, and the units of their generalised forces and
+/// rates as those names carry them.
+inline constexpr std::array<const char*, kJoints> kJointNames{"stroke", "deviation", "pitch",
+                                                              "span_ratio", "plunge"};
+inline constexpr std::array<const char*, kJoints> kJointForceUnits{"Nm", "Nm", "Nm", "J", "N"};
+inline constexpr std::array<const char*, kJoints> kJointRateUnits{"rad_s", "rad_s", "rad_s",
+                                                                  "per_s", "m_s"};
 
 /// Drive quantities of one wing at one instant (filled by add_drive, simulation/drive.hpp).
 struct WingDriveSample {
