@@ -1,0 +1,94 @@
+#include "fuzz_input.hpp"
+
+#include <cstdio>
+#include <fstream>
+#include <stdexcept>
+
+#include "flapline/common/errors.hpp"
+#include "flapline/io/config.hpp"
+#include "flapline/io/resolved.hpp"
+
+namespace flapline::fuzz {
+
+namespace {
+bool starts_with(const std::string& s, const char* prefix) { return s.rfind(prefix, 0) == 0; }
+}  // namespace
+
+Input split(const std::uint8_t* data, std::size_t size) {
+  Input in;
+  const std::string all(reinterpret_cast<const char*>(data), size);
+  std::size_t begin = 0;
+  while (begin < all.size()) {
+    std::size_t end = all.find('\n', begin);
+    if (end == std::string::npos) end = all.size();
+    std::string line = all.substr(begin, end - begin);
+    if (!line.empty() && line.back() == '\r') line.pop_back();
+    begin = end + 1;
+    if (line == "#csv") {
+      in.has_csv = true;
+      if (begin < all.size()) in.csv = all.substr(begin);
+      break;
+    }
+    in.text += line;
+    in.text += '\n';
+    if (starts_with(line, "#set ")) {
+      in.sets.push_back(line.substr(5));
+    } else if (starts_with(line, "#case ")) {
+      in.has_case = true;
+      const std::string o = line.substr(6);
+      const std::size_t eq = o.find('=');
+      if (eq == std::string::npos)
+        in.study_case.overrides.push_back({o, "", true});
+      else
+        in.study_case.overrides.push_back({o.substr(0, eq), o.substr(eq + 1), false});
+    }
+  }
+  return in;
+}
+
+bool load(const Input& input, const std::string& scratch_dir) {
+  // The table file is this input's own: written when it has one, gone when it has none.
+  const std::string csv_path = scratch_dir + "/wing.csv";
+  if (input.has_csv)
+    std::ofstream(csv_path, std::ios::binary | std::ios::trunc) << input.csv;
+  else
+    std::remove(csv_path.c_str());
+  const std::string name = "fuzz.yaml";
+  bool loaded = false;
+  try {
+    const Model model = io::model_from_text(input.text, name, input.sets, scratch_dir);
+    // resolved.yaml reruns the same case: it loads, and resolves to itself.
+    const std::string resolved = io::resolved_yaml(model);
+    try {
+      const Model again = io::model_from_text(resolved, "resolved.yaml", {}, scratch_dir);
+      if (io::resolved_yaml(again) != resolved)
+        throw std::logic_error("resolved.yaml does not resolve to itself:\n" + resolved);
+    } catch (const InputError& e) {
+      throw std::logic_error(std::string("resolved.yaml is refused: ") + e.what() + "\n" +
+                             resolved);
+    }
+    loaded = true;
+  } catch (const InputError&) {
+  }
+  if (input.has_case) {
+    try {
+      const io::CaseLoader loader(input.text, name, scratch_dir, input.sets);
+      const Model model = loader.build(input.study_case);
+      // The case's document runs as is: it loads to the same case.
+      const std::string document = loader.document(input.study_case);
+      try {
+        const Model again = io::model_from_text(document, "case.yaml", {}, scratch_dir);
+        if (io::resolved_yaml(again) != io::resolved_yaml(model))
+          throw std::logic_error("the case document loads to another case:\n" + document);
+      } catch (const InputError& e) {
+        throw std::logic_error(std::string("the case document is refused: ") + e.what() + "\n" +
+                               document);
+      }
+      loaded = true;
+    } catch (const InputError&) {
+    }
+  }
+  return loaded;
+}
+
+}  // namespace flapline::fuzz
