@@ -11,8 +11,8 @@ namespace {
 /// A folder of this process for the table file.
 const std::string& scratch_dir() {
   static const std::string dir = [] {
-    const auto p = std::filesystem::temp_directory_path() /
-                   ("flapline_fuzz_" + std::to_string(::getpid()));
+    const auto p =
+        std::filesystem::temp_directory_path() / ("flapline_fuzz_" + std::to_string(::getpid()));
     std::filesystem::create_directories(p);
     return p.string();
   }();

@@ -40,8 +40,7 @@ std::vector<fs::path> files_in(const fs::path& dir) {
 bool replay(const fs::path& file, const fs::path& scratch) {
   std::ifstream in(file, std::ios::binary);
   const std::string bytes((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
-  const auto input =
-      fuzz::split(reinterpret_cast<const std::uint8_t*>(bytes.data()), bytes.size());
+  const auto input = fuzz::split(reinterpret_cast<const std::uint8_t*>(bytes.data()), bytes.size());
   return fuzz::load(input, scratch.string());
 }
 }  // namespace
@@ -54,7 +53,8 @@ TEST_CASE("fuzz seeds: every config in the repository loads or is refused, nothi
   const auto validation = yaml_files(test::source_path("validation/cases"), true);
   const auto bad = yaml_files(test::source_path("tests/io/bad_input"), false);
   const auto seeds = files_in(test::source_path("tests/fuzz/seeds"));
-  for (const auto* more : {&validation, &bad, &seeds}) files.insert(files.end(), more->begin(), more->end());
+  for (const auto* more : {&validation, &bad, &seeds})
+    files.insert(files.end(), more->begin(), more->end());
   for (const fs::path& f : files) {
     CAPTURE(f.string());
     // validation case.yaml files are not configs (they describe a check): refused is fine.

@@ -11,7 +11,9 @@
 namespace flapline::fuzz {
 
 namespace {
-bool starts_with(const std::string& s, const char* prefix) { return s.rfind(prefix, 0) == 0; }
+bool starts_with(const std::string& s, const char* prefix) {
+  return s.rfind(prefix, 0) == 0;
+}
 }  // namespace
 
 Input split(const std::uint8_t* data, std::size_t size) {

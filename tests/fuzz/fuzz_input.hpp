@@ -15,7 +15,7 @@
 namespace flapline::fuzz {
 
 struct Input {
-  std::string text;              ///< the YAML document (the #set/#case lines stay in as comments)
+  std::string text;               ///< the YAML document (the #set/#case lines stay in as comments)
   std::vector<std::string> sets;  ///< --set strings
   studies::CaseSpec study_case;   ///< the #case overrides
   bool has_case = false;
