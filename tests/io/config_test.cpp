@@ -33,7 +33,9 @@ TEST_CASE("demo configs equal the invented samples they document") {
       {"configs/hover_insect.yaml", samples::hover_insect()},
       {"configs/forward_bat.yaml", samples::forward_bat()},
       {"configs/rolling_bat.yaml", samples::rolling_bat()}};
-  for (const auto& [path, spec] : demos) {
+  for (const auto& demo : demos) {
+    const char* const path = demo.first;
+    const ModelSpec& spec = demo.second;
     CAPTURE(path);
     const RunSummary from_yaml = simulate(io::load_model(test::source_path(path)));
     const RunSummary from_code = simulate(Model(spec));
@@ -143,6 +145,10 @@ TEST_CASE("bad-input messages say what a first user needs: units typed, counts, 
       {"table_row_order", "row 3", 8},  // the row's own line, not the table key's
       {"second_moment_below_first", "must exceed first_moment_radius", 7},
       {"mass_point_outside", "must lie on the wing", 8},
+      {"stroke_too_fast", "slower than 1000 m/s", 9},  // the cause, at its own key
+      {"stroke_too_fast", "deg/s times the span, 0.5 m", 9},
+      {"plunge_too_fast", "(the peak plunge rate)", 9},
+      {"plunge_huge", "must stay within ±1000 (m)", 10},
   };
   for (const Expect& c : cases) {
     CAPTURE(c.file);
@@ -157,6 +163,22 @@ TEST_CASE("bad-input messages say what a first user needs: units typed, counts, 
   }
 }
 
+TEST_CASE("a gait too fast for an incompressible model is refused at its largest cause") {
+  // Peak stroke rates at 2000 Hz (right: the demo's 60 degrees, smoothed triangle K = 0.7, peak
+  // rate A·2πf·K/asin K; left: 170 degrees) times the 0.05 m span: about 594 and 1680 m/s.
+  const std::string path = test::source_path("configs/hover_insect.yaml");
+  try {
+    io::load_model(path, {"gait.frequency=2000", "gait.left.stroke.amplitude=170"});
+    FAIL("accepted");
+  } catch (const InputError& e) {
+    CHECK(e.key() == "gait.left.stroke");
+    CHECK(e.is_between_keys());
+    CHECK(std::string(e.what()).find("--set gait.left.stroke.amplitude=170") != std::string::npos);
+  }
+  // The demo itself at its own frequency is far below the limit.
+  CHECK_NOTHROW(io::load_model(path, {"gait.left.stroke.amplitude=170"}));
+}
+
 TEST_CASE("resolved.yaml holds every key and reruns the same case") {
   // Every demo (a flight condition, a vehicle, a mass table, inflow, profile drag among them),
   // plus a planform from a table file and --set overrides.
@@ -168,7 +190,9 @@ TEST_CASE("resolved.yaml holds every key and reruns the same case") {
   REQUIRE(cases.size() >= 9);
   const fs::path dir = test::fresh_folder("resolved_yaml");
   fs::create_directories(dir);
-  for (const auto& [config, sets] : cases) {
+  for (const auto& entry : cases) {
+    const auto& config = entry.first;
+    const auto& sets = entry.second;
     CAPTURE(config);
     const Model a = io::load_model(config, sets);
     const fs::path file = dir / "resolved.yaml";

@@ -2,6 +2,8 @@
 
 #include <algorithm>
 #include <cmath>
+#include <string>
+#include <vector>
 
 #include "flapline/common/errors.hpp"
 #include "flapline/common/math.hpp"
@@ -45,6 +47,74 @@ void check_span_ratio(const WingMotion& m) {
                          format_number(m.span_ratio.maximum()),
                      "must stay within (0, 1] over the whole cycle")
         .between_keys();
+}
+
+/// The fastest a point of the wings moves relative to the body, bounded by the sum of the peaks
+/// of its causes (joint rates sampled at 1024 instants of the cycle, times the lever arm each
+/// acts on; the body's rates on the wing's farthest point). Refused above kMaxSpeed, naming the
+/// key of the largest cause: the models are incompressible (and a huge speed would overflow the
+/// step checks that follow).
+void check_speeds(const std::array<WingMotion, 2>& motion, double span, double max_chord) {
+  constexpr double kMaxSpeed = 1000.0;  // m/s
+  constexpr int kSamples = 1024;
+  struct Cause {
+    std::string key;
+    double speed = 0.0;
+    std::string how;
+  };
+  std::vector<Cause> causes;
+  double total = 0.0;
+  auto add = [&](std::string key, double speed, std::string how) {
+    total += speed;
+    causes.push_back({std::move(key), speed, std::move(how)});
+  };
+  const Waveform& z = motion[0].plunge;
+  if (!(std::max(std::abs(z.minimum()), std::abs(z.maximum())) <= 1000.0))
+    throw InputError("gait.plunge",
+                     "from " + format_number(z.minimum()) + " to " + format_number(z.maximum()),
+                     "must stay within ±1000 (m) over the whole cycle");
+  const double reach = motion[0].hinge.norm() + span;
+  add("flight.rates", motion[0].rates.norm() * reach,
+      "the body's rates times the wing's farthest point, " + format_number(reach) + " m");
+  double plunge = 0.0;
+  for (const WingMotion& m : motion) {
+    const std::string side = std::string("gait.") + (m.side == Side::right ? "right" : "left");
+    const double period = 1.0 / m.frequency;
+    struct Joint {
+      const Waveform* w;
+      const char* name;
+      double arm;
+      const char* arm_name;
+      double peak = 0.0;
+    };
+    Joint joints[] = {{&m.stroke, "stroke", span, "the span"},
+                      {&m.deviation, "deviation", span, "the span"},
+                      {&m.pitch, "pitch", max_chord, "the largest chord"},
+                      {&m.span_ratio, "span_ratio", span, "the span"}};
+    for (int j = 0; j < kSamples; ++j) {
+      const double t = period * j / kSamples;
+      for (Joint& q : joints) q.peak = std::max(q.peak, std::abs(q.w->at(t, m.frequency).rate));
+      plunge = std::max(plunge, std::abs(m.plunge.at(t, m.frequency).rate));
+    }
+    for (const Joint& q : joints) {
+      const bool angle = std::string(q.name) != "span_ratio";
+      add(side + "." + q.name, q.peak * q.arm,
+          "a peak rate of " + format_number(angle ? q.peak / kDegree : q.peak) +
+              (angle ? " deg/s" : " 1/s") + " times " + q.arm_name + ", " + format_number(q.arm) +
+              " m");
+    }
+  }
+  add("gait.plunge", plunge, "the peak plunge rate");
+  if (total <= kMaxSpeed) return;  // false for NaN too: refused below
+  const Cause* worst = &causes.front();
+  for (const Cause& c : causes)
+    if (!(c.speed <= worst->speed)) worst = &c;
+  throw InputError(worst->key, format_number(worst->speed) + " m/s (" + worst->how + ")",
+                   "the wings must move slower than " + format_number(kMaxSpeed) +
+                       " m/s relative to the body (all causes together: " + format_number(total) +
+                       " m/s); the models are incompressible",
+                   "check the units (degrees, metres, Hz) and the frequency")
+      .between_keys();
 }
 
 /// Validate the vehicle and derive the body's velocity and rates from a flight condition.
@@ -91,6 +161,7 @@ Model::Model(ModelSpec spec)
               WingMotion(Side::left, spec_.gait, spec_.gait.left, spec_.wing.hinge, spec_.flight)} {
   check_span_ratio(motion_[0]);
   check_span_ratio(motion_[1]);
+  check_speeds(motion_, planform_.span(), strips_.chord.maxCoeff());
   validate(spec_.aero);
   validate(spec_.simulation);
   validate(spec_.wing_mass);

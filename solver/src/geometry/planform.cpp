@@ -9,9 +9,14 @@
 namespace flapline {
 namespace {
 
+/// Lengths of the wing: positive and at most kMaxLength, so that areas, moments and speeds stay
+/// far from overflow.
+constexpr double kMaxLength = 1000.0;  // m
+
 void require_positive(double v, const char* key, const char* unit) {
-  if (!(v > 0.0) || !std::isfinite(v))
-    throw InputError(key, format_number(v), std::string("must be > 0 (") + unit + ")");
+  if (!(v > 0.0 && v <= kMaxLength))
+    throw InputError(key, format_number(v),
+                     "must lie in (0, " + format_number(kMaxLength) + "] (" + unit + ")");
 }
 
 }  // namespace
@@ -29,8 +34,12 @@ Planform::Planform(PlanformSpec spec) : spec_(std::move(spec)) {
   if (s.shape != PlanformShape::table && (!(s.pitch_axis >= 0.0 && s.pitch_axis <= 1.0)))
     throw InputError("wing.pitch_axis", format_number(s.pitch_axis),
                      "must lie in [0, 1] (chord fraction from the leading edge)");
-  if (!s.hinge.allFinite())
-    throw InputError("wing.hinge", "non-finite", "must be three finite numbers (m, body axes)");
+  if (!s.hinge.allFinite() || s.hinge.cwiseAbs().maxCoeff() > kMaxLength)
+    throw InputError(
+        "wing.hinge",
+        "[" + format_number(s.hinge.x()) + ", " + format_number(s.hinge.y()) + ", " +
+            format_number(s.hinge.z()) + "]",
+        "must be three numbers within ±" + format_number(kMaxLength) + " (m, body axes)");
   for (auto [v, key] :
        {std::pair{s.twist_root, "wing.twist_root"}, std::pair{s.twist_tip, "wing.twist_tip"}})
     if (!(std::abs(v) <= 45.0 * kDegree))
@@ -45,8 +54,9 @@ Planform::Planform(PlanformSpec spec) : spec_(std::move(spec)) {
       break;
     case PlanformShape::tapered:
       require_positive(s.root_chord, "wing.root_chord", "m");
-      if (!(s.tip_chord >= 0.0) || !std::isfinite(s.tip_chord))
-        throw InputError("wing.tip_chord", format_number(s.tip_chord), "must be >= 0 (m)");
+      if (!(s.tip_chord >= 0.0 && s.tip_chord <= kMaxLength))
+        throw InputError("wing.tip_chord", format_number(s.tip_chord),
+                         "must lie in [0, " + format_number(kMaxLength) + "] (m)");
       break;
     case PlanformShape::beta: {
       require_positive(s.mean_chord, "wing.mean_chord", "m");
@@ -92,11 +102,11 @@ Planform::Planform(PlanformSpec spec) : spec_(std::move(spec)) {
         if (i > 0 && !(u[i] > u[i - 1]))
           throw InputError("wing.table", "row " + std::to_string(i + 1),
                            "span_fraction must increase strictly");
-        if (!(s.table_chord[i] >= 0.0) || !std::isfinite(s.table_chord[i]))
+        if (!(s.table_chord[i] >= 0.0 && s.table_chord[i] <= kMaxLength))
           throw InputError(
               "wing.table",
               "row " + std::to_string(i + 1) + " chord " + format_number(s.table_chord[i]),
-              "chord must be >= 0 (m)");
+              "chord must lie in [0, " + format_number(kMaxLength) + "] (m)");
         if (!(s.table_leading_edge[i] >= 0.0 && s.table_leading_edge[i] <= s.table_chord[i]))
           throw InputError("wing.table",
                            "row " + std::to_string(i + 1) + " leading_edge " +
