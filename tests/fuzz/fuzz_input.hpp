@@ -26,10 +26,11 @@ struct Input {
 Input split(const std::uint8_t* data, std::size_t size);
 
 /// Load the input as the CLI and a study would: the Model from the text with its --set strings,
-/// its resolved configuration, which must load again to the same resolved configuration, and the
-/// study case when there is one. `scratch_dir` holds the table file (relative table paths resolve
-/// there). Returns true when it loaded, false when an InputError refused it; any other exception
-/// or a broken round trip escapes (std::logic_error) and is a finding.
+/// its resolved configuration, which must load again to the same resolved configuration, one
+/// cycle of the case made small, and the study case when there is one. `scratch_dir` holds the
+/// table file (relative table paths resolve there). Returns true when it loaded, false when an
+/// InputError refused it; any other exception or a broken round trip escapes (std::logic_error) and
+/// is a finding.
 bool load(const Input& input, const std::string& scratch_dir);
 
 }  // namespace flapline::fuzz
