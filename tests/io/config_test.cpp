@@ -61,6 +61,20 @@ TEST_CASE("--set overrides any key, and a side block overrides the shared gait k
   CHECK(s.gait.left.span_ratio.mean == doctest::Approx(0.8));
 }
 
+TEST_CASE("a key given twice with --set: the last one wins, also under a parent key") {
+  const std::string path = test::source_path("configs/hover_insect.yaml");
+  CHECK(io::load_spec(path, {"gait.frequency=30", "gait.frequency=40"}).gait.frequency == 40);
+  // A whole waveform, then one of its fields: the field applies to the new waveform.
+  const ModelSpec s = io::load_spec(
+      path, {"gait.stroke={shape: harmonic, amplitude: 50}", "gait.stroke.amplitude=55"});
+  CHECK(s.gait.right.stroke.shape == WaveShape::harmonic);
+  CHECK(s.gait.right.stroke.amplitude == doctest::Approx(55 * kDegree));
+  // ... and the other way round: the later whole waveform replaces the earlier field.
+  CHECK(
+      io::load_spec(path, {"gait.stroke.amplitude=55", "gait.stroke=20"}).gait.right.stroke.mean ==
+      doctest::Approx(20 * kDegree));
+}
+
 TEST_CASE("an override error is placed on the command line") {
   const std::string path = test::source_path("configs/hover_insect.yaml");
   try {
