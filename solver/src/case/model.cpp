@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 #include <string>
 #include <vector>
 
@@ -49,34 +50,28 @@ void check_span_ratio(const WingMotion& m) {
         .between_keys();
 }
 
-/// The fastest a point of the wings moves relative to the body, bounded by the sum of the peaks
-/// of its causes (joint rates sampled at 1024 instants of the cycle, times the lever arm each
-/// acts on; the body's rates on the wing's farthest point). Refused above kMaxSpeed, naming the
-/// key of the largest cause: the models are incompressible (and a huge speed would overflow the
-/// step checks that follow).
+/// The fastest a point of a wing moves relative to the body, bounded by the sum of the peaks of
+/// its causes: the body's rates times the wing's farthest point, each joint's peak rate (sampled
+/// at 1024 instants of the cycle) times the lever arm it acts on, and the plunge rate. Refused
+/// above kMaxSpeed for either wing, naming the key of that wing's largest cause: the models are
+/// incompressible (and a huge speed would overflow the step checks that follow).
 void check_speeds(const std::array<WingMotion, 2>& motion, double span, double max_chord) {
   constexpr double kMaxSpeed = 1000.0;  // m/s
   constexpr int kSamples = 1024;
-  struct Cause {
-    std::string key;
-    double speed = 0.0;
-    std::string how;
-  };
-  std::vector<Cause> causes;
-  double total = 0.0;
-  auto add = [&](std::string key, double speed, std::string how) {
-    total += speed;
-    causes.push_back({std::move(key), speed, std::move(how)});
-  };
   const Waveform& z = motion[0].plunge;
   if (!(std::max(std::abs(z.minimum()), std::abs(z.maximum())) <= 1000.0))
     throw InputError("gait.plunge",
                      "from " + format_number(z.minimum()) + " to " + format_number(z.maximum()),
                      "must stay within ±1000 (m) over the whole cycle");
+  struct Cause {
+    std::string key;
+    double speed = 0.0;
+    std::string how;
+  };
   const double reach = motion[0].hinge.norm() + span;
-  add("flight.rates", motion[0].rates.norm() * reach,
-      "the body's rates times the wing's farthest point, " + format_number(reach) + " m");
-  double plunge = 0.0;
+  double worst_total = -1.0;
+  Cause worst;
+  std::string worst_side;
   for (const WingMotion& m : motion) {
     const std::string side = std::string("gait.") + (m.side == Side::right ? "right" : "left");
     const double period = 1.0 / m.frequency;
@@ -90,28 +85,45 @@ void check_speeds(const std::array<WingMotion, 2>& motion, double span, double m
     Joint joints[] = {{&m.stroke, "stroke", span, "the span"},
                       {&m.deviation, "deviation", span, "the span"},
                       {&m.pitch, "pitch", max_chord, "the largest chord"},
-                      {&m.span_ratio, "span_ratio", span, "the span"}};
+                      {&m.span_ratio, "span_ratio", span, "the span"},
+                      {&m.plunge, "plunge", 1.0, ""}};
     for (int j = 0; j < kSamples; ++j) {
       const double t = period * j / kSamples;
       for (Joint& q : joints) q.peak = std::max(q.peak, std::abs(q.w->at(t, m.frequency).rate));
-      plunge = std::max(plunge, std::abs(m.plunge.at(t, m.frequency).rate));
     }
+    std::vector<Cause> causes{
+        {"flight.rates", m.rates.norm() * reach,
+         "the body's rates times the wing's farthest point, " + format_number(reach) + " m"}};
     for (const Joint& q : joints) {
-      const bool angle = std::string(q.name) != "span_ratio";
-      add(side + "." + q.name, q.peak * q.arm,
-          "a peak rate of " + format_number(angle ? q.peak / kDegree : q.peak) +
-              (angle ? " deg/s" : " 1/s") + " times " + q.arm_name + ", " + format_number(q.arm) +
-              " m");
+      const std::string name = q.name;
+      if (name == "plunge") {
+        causes.push_back({"gait.plunge", q.peak, "the peak plunge rate"});
+        continue;
+      }
+      const bool angle = name != "span_ratio";
+      causes.push_back({side + "." + name, q.peak * q.arm,
+                        "a peak rate of " + format_number(angle ? q.peak / kDegree : q.peak) +
+                            (angle ? " deg/s" : " 1/s") + " times " + q.arm_name + ", " +
+                            format_number(q.arm) + " m"});
+    }
+    double total = 0.0;
+    const Cause* largest = &causes.front();
+    for (const Cause& c : causes) {
+      total += c.speed;
+      if (!(c.speed <= largest->speed)) largest = &c;
+    }
+    if (std::isnan(total)) total = std::numeric_limits<double>::infinity();
+    if (total > worst_total) {
+      worst_total = total;
+      worst = *largest;
+      worst_side = m.side == Side::right ? "right" : "left";
     }
   }
-  add("gait.plunge", plunge, "the peak plunge rate");
-  if (total <= kMaxSpeed) return;  // false for NaN too: refused below
-  const Cause* worst = &causes.front();
-  for (const Cause& c : causes)
-    if (!(c.speed <= worst->speed)) worst = &c;
-  throw InputError(worst->key, format_number(worst->speed) + " m/s (" + worst->how + ")",
+  if (worst_total <= kMaxSpeed) return;
+  throw InputError(worst.key, format_number(worst.speed) + " m/s (" + worst.how + ")",
                    "the wings must move slower than " + format_number(kMaxSpeed) +
-                       " m/s relative to the body (all causes together: " + format_number(total) +
+                       " m/s relative to the body (all causes together on the " + worst_side +
+                       " wing: " + format_number(worst_total) +
                        " m/s); the models are incompressible",
                    "check the units (degrees, metres, Hz) and the frequency")
       .between_keys();
