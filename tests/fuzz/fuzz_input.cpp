@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <cstdio>
+#include <cstring>
 #include <fstream>
 #include <stdexcept>
 
@@ -14,10 +15,21 @@ namespace flapline::fuzz {
 
 namespace {
 
+/// What a short run gave: how it ended and, when it ran, the cycle-mean wrench.
+struct Outcome {
+  enum class Kind { ran, input_error, blew_up } kind = Kind::ran;
+  Eigen::Vector3d force = Eigen::Vector3d::Zero(), moment = Eigen::Vector3d::Zero();
+  /// The same ending and the same bits (NaN included).
+  bool same_as(const Outcome& o) const {
+    return kind == o.kind && std::memcmp(force.data(), o.force.data(), sizeof(double) * 3) == 0 &&
+           std::memcmp(moment.data(), o.moment.data(), sizeof(double) * 3) == 0;
+  }
+};
+
 /// A short run of the case made small — one cycle, at most 6 strips per wing and 80 steps — so
 /// that the run's own checks (the step size) and the loads see whatever the loader lets through.
 /// An InputError (the step check) and a NumericalError (a run that blows up) are proper outcomes.
-void run_small(const Model& model) {
+Outcome run_small(const Model& model) {
   ModelSpec spec = model.spec();
   spec.strips.count = std::min(spec.strips.count, 6);
   if (spec.simulation.steps_per_cycle > 80) {
@@ -25,11 +37,19 @@ void run_small(const Model& model) {
     spec.simulation.samples_per_cycle = 20;
   }
   spec.simulation.min_cycles = spec.simulation.max_cycles = 1;
+  Outcome out;
   try {
-    (void)simulate(Model(spec));
+    RunControl quick;
+    quick.keep_history = false;
+    const RunSummary r = simulate(Model(spec), quick);
+    out.force = r.averages.mean.force;
+    out.moment = r.averages.mean.moment;
   } catch (const InputError&) {
+    out.kind = Outcome::Kind::input_error;
   } catch (const NumericalError&) {
+    out.kind = Outcome::Kind::blew_up;
   }
+  return out;
 }
 
 bool starts_with(const std::string& s, const char* prefix) {
@@ -80,17 +100,20 @@ bool load(const Input& input, const std::string& scratch_dir) {
   bool loaded = false;
   try {
     const Model model = io::model_from_text(input.text, name, input.sets, scratch_dir);
-    // resolved.yaml reruns the same case: it loads, and resolves to itself.
+    // resolved.yaml reruns the same case bit for bit: it loads, resolves to itself, and the
+    // short run gives the same bits.
     const std::string resolved = io::resolved_yaml(model);
+    const Outcome first = run_small(model);
     try {
       const Model again = io::model_from_text(resolved, "resolved.yaml", {}, scratch_dir);
       if (io::resolved_yaml(again) != resolved)
         throw std::logic_error("resolved.yaml does not resolve to itself:\n" + resolved);
+      if (!run_small(again).same_as(first))
+        throw std::logic_error("resolved.yaml reruns to other results:\n" + resolved);
     } catch (const InputError& e) {
       throw std::logic_error(std::string("resolved.yaml is refused: ") + e.what() + "\n" +
                              resolved);
     }
-    run_small(model);
     loaded = true;
   } catch (const InputError&) {
   }
@@ -102,7 +125,8 @@ bool load(const Input& input, const std::string& scratch_dir) {
       const std::string document = loader.document(input.study_case);
       try {
         const Model again = io::model_from_text(document, "case.yaml", {}, scratch_dir);
-        if (io::resolved_yaml(again) != io::resolved_yaml(model))
+        if (io::resolved_yaml(again) != io::resolved_yaml(model) ||
+            !run_small(again).same_as(run_small(model)))
           throw std::logic_error("the case document loads to another case:\n" + document);
       } catch (const InputError& e) {
         throw std::logic_error(std::string("the case document is refused: ") + e.what() + "\n" +
