@@ -1,3 +1,5 @@
+// The fuzz input's loading and its properties. No reference value here: every comparison is of a
+// case with its own rerun (resolved.yaml, a study case's document), which must agree bit for bit.
 #include "fuzz_input.hpp"
 
 #include <algorithm>
@@ -52,6 +54,22 @@ Outcome run_small(const Model& model) {
   return out;
 }
 
+/// `text` (a YAML document written for `model`) must load again to the same case: the same
+/// resolved configuration and the same short run, bit for bit. A refusal or a difference throws
+/// std::logic_error (a finding).
+void check_rerun(const Model& model, const std::string& text, const std::string& what,
+                 const std::string& scratch_dir) {
+  try {
+    const Model again = io::model_from_text(text, what, {}, scratch_dir);
+    if (io::resolved_yaml(again) != io::resolved_yaml(model))
+      throw std::logic_error(what + " resolves to another configuration:\n" + text);
+    if (!run_small(again).same_as(run_small(model)))
+      throw std::logic_error(what + " reruns to other results:\n" + text);
+  } catch (const InputError& e) {
+    throw std::logic_error(what + " is refused: " + e.what() + "\n" + text);
+  }
+}
+
 bool starts_with(const std::string& s, const char* prefix) {
   return s.rfind(prefix, 0) == 0;
 }
@@ -99,39 +117,18 @@ bool load(const Input& input, const std::string& scratch_dir) {
   const std::string name = "fuzz.yaml";
   bool loaded = false;
   try {
+    // resolved.yaml reruns the same case bit for bit.
     const Model model = io::model_from_text(input.text, name, input.sets, scratch_dir);
-    // resolved.yaml reruns the same case bit for bit: it loads, resolves to itself, and the
-    // short run gives the same bits.
-    const std::string resolved = io::resolved_yaml(model);
-    const Outcome first = run_small(model);
-    try {
-      const Model again = io::model_from_text(resolved, "resolved.yaml", {}, scratch_dir);
-      if (io::resolved_yaml(again) != resolved)
-        throw std::logic_error("resolved.yaml does not resolve to itself:\n" + resolved);
-      if (!run_small(again).same_as(first))
-        throw std::logic_error("resolved.yaml reruns to other results:\n" + resolved);
-    } catch (const InputError& e) {
-      throw std::logic_error(std::string("resolved.yaml is refused: ") + e.what() + "\n" +
-                             resolved);
-    }
+    check_rerun(model, io::resolved_yaml(model), "resolved.yaml", scratch_dir);
     loaded = true;
   } catch (const InputError&) {
   }
   if (input.has_case) {
     try {
+      // The case's document runs as is: it loads to the same case.
       const io::CaseLoader loader(input.text, name, scratch_dir, input.sets);
       const Model model = loader.build(input.study_case);
-      // The case's document runs as is: it loads to the same case.
-      const std::string document = loader.document(input.study_case);
-      try {
-        const Model again = io::model_from_text(document, "case.yaml", {}, scratch_dir);
-        if (io::resolved_yaml(again) != io::resolved_yaml(model) ||
-            !run_small(again).same_as(run_small(model)))
-          throw std::logic_error("the case document loads to another case:\n" + document);
-      } catch (const InputError& e) {
-        throw std::logic_error(std::string("the case document is refused: ") + e.what() + "\n" +
-                               document);
-      }
+      check_rerun(model, loader.document(input.study_case), "the case document", scratch_dir);
       loaded = true;
     } catch (const InputError&) {
     }
